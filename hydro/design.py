@@ -1,0 +1,109 @@
+"""A design: hull, loads, water and analysis settings, and the one call that analyses it."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from hydro.errors import HullwrightError, ShapeError
+from hydro.hull import HullSketch, Stations, generate_stations
+from hydro.loads import Loads, WATER_PRESETS, shell_panels, water_density, weight_build_up
+from hydro.sections import SectionTable, build_section_table
+from hydro.stability import Analysis, analyse_table
+
+__all__ = ["AnalysisSettings", "Design", "analyse", "analyse_stations"]
+
+
+@dataclass(frozen=True)
+class AnalysisSettings:
+    """How the righting-arm curve is computed.
+
+    Attributes
+    ----------
+    heel_step_deg : step between heel angles (0.1 to 15)
+    heel_max_deg : last heel angle (5 to 180)
+    free_trim : let the boat trim freely at every heel (else trim stays as upright)
+    """
+
+    heel_step_deg: float = 1.0
+    heel_max_deg: float = 90.0
+    free_trim: bool = True
+
+    def heel_angles(self) -> np.ndarray:
+        """(A,) heel angles in degrees, 0 to heel_max_deg inclusive."""
+        if not 0.1 <= self.heel_step_deg <= 15.0:
+            raise HullwrightError("the heel step must be between 0.1 and 15 degrees")
+        if not 5.0 <= self.heel_max_deg <= 180.0:
+            raise HullwrightError("the largest heel must be between 5 and 180 degrees")
+        n = int(round(self.heel_max_deg / self.heel_step_deg))
+        angles = np.arange(n + 1) * self.heel_step_deg
+        if angles[-1] < self.heel_max_deg - 1e-9:
+            angles = np.append(angles, self.heel_max_deg)
+        return np.minimum(angles, self.heel_max_deg)
+
+
+@dataclass(frozen=True)
+class Design:
+    """Everything a design file holds.
+
+    Attributes
+    ----------
+    name, notes : free text
+    hull : a sketch (curves a builder drags) or a fixed table of offsets
+    loads : crew, items, materials, bilge water
+    water : preset name ("fresh", "sea") or a density in kg/m^3
+    settings : how the GZ curve is computed
+    """
+
+    name: str
+    hull: HullSketch | Stations
+    loads: Loads = field(default_factory=Loads)
+    water: str | float = "fresh"
+    notes: str = ""
+    settings: AnalysisSettings = field(default_factory=AnalysisSettings)
+
+    @property
+    def water_density(self) -> float:
+        """Water density in kg/m^3 (raises LoadError for a bad value)."""
+        return water_density(self.water)
+
+    @property
+    def water_label(self) -> str:
+        if isinstance(self.water, str) and self.water.lower() in WATER_PRESETS:
+            return f"{self.water.lower()} water, {WATER_PRESETS[self.water.lower()]:g} kg/m3"
+        return f"water {self.water_density:g} kg/m3"
+
+    def stations(self) -> Stations:
+        """The table of offsets the engine works on (raises ShapeError)."""
+        if isinstance(self.hull, Stations):
+            return self.hull
+        if isinstance(self.hull, HullSketch):
+            return generate_stations(self.hull)
+        raise ShapeError("the design has no hull")
+
+
+def analyse_stations(
+    stations: Stations,
+    loads: Loads,
+    rho: float,
+    settings: AnalysisSettings = AnalysisSettings(),
+    table: SectionTable | None = None,
+) -> Analysis:
+    """Weight build-up, upright hydrostatics and the GZ curve for a table of offsets."""
+    table = table or build_section_table(stations)
+    panels = shell_panels(stations) if loads.materials else None
+    weights = weight_build_up(loads, stations, rho, panels)
+    return analyse_table(table, weights, rho, settings.heel_angles(), settings.free_trim)
+
+
+def analyse(design: Design) -> Analysis:
+    """Analyse a design.
+
+    Raises
+    ------
+    HullwrightError
+        For an impossible hull or load (message names the problem).  A load the hull
+        cannot carry is not an error: it is reported in ``Analysis.status``.
+    """
+    return analyse_stations(design.stations(), design.loads, design.water_density, design.settings)

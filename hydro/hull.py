@@ -1,0 +1,312 @@
+"""The hull: sketch curves a builder drags, and the stations the engine works on.
+
+Coordinates: x forward from the aft end, y to starboard, z up. Lengths in metres.
+
+A :class:`HullSketch` holds the plan half-breadth b(x), the keel line k(x), the sheer
+line s(x) and one or more normalised half-section shapes (u, v) with u = y / b(x) and
+v = (z - k(x)) / (s(x) - k(x)).  :func:`generate_stations` turns it into
+:class:`Stations`, a table of offsets: one half section (y, z) per station, from the
+centreline to the gunwale.  The engine only ever sees stations, so a sketched hull, an
+imported offsets table and an analytic test hull are all the same to it.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+import numpy as np
+import shapely
+from numpy.typing import NDArray
+
+from hydro.curves import interpolate, sample_polyline
+from hydro.errors import ShapeError
+
+__all__ = [
+    "Curve",
+    "SectionShape",
+    "HullSketch",
+    "Stations",
+    "generate_stations",
+    "validate_sketch",
+    "validate_half_section",
+    "scale_breadth",
+]
+
+FloatArray = NDArray[np.float64]
+
+#: Samples per span of a smooth section curve.
+SMOOTH_SAMPLES_PER_SPAN = 6
+
+
+@dataclass(frozen=True)
+class Curve:
+    """A curve along the hull through control points (x, value), x increasing.
+
+    Attributes
+    ----------
+    points : tuple of (x, value) pairs, metres
+    smooth : bool
+        Monotone cubic through the points if True, straight segments if False.
+    """
+
+    points: tuple[tuple[float, float], ...]
+    smooth: bool = True
+
+    def __call__(self, x: FloatArray) -> FloatArray:
+        p = np.asarray(self.points, dtype=float)
+        return interpolate(p[:, 0], p[:, 1], x, self.smooth)
+
+    def with_point(self, index: int, point: tuple[float, float]) -> Curve:
+        """Copy with one control point replaced."""
+        pts = list(self.points)
+        pts[index] = (float(point[0]), float(point[1]))
+        return replace(self, points=tuple(pts))
+
+
+@dataclass(frozen=True)
+class SectionShape:
+    """A normalised half-section shape placed at station position ``x``.
+
+    Attributes
+    ----------
+    x : float
+        Where along the hull this shape is exact (m); shapes are blended linearly
+        between neighbouring positions and held beyond the first and last.
+    points : tuple of (u, v) pairs
+        From the centreline (u = 0) to the gunwale (1, 1).  u = y / b(x) and
+        v = (z - k(x)) / d(x).  The first point is usually the keel (0, 0); a raft's
+        section starts at the underside of its bridge deck (0, v > 0).
+    smooth : bool
+        Smooth curve through the points, or a hard-chine polyline.
+    """
+
+    x: float
+    points: tuple[tuple[float, float], ...]
+    smooth: bool = False
+
+    def with_point(self, index: int, point: tuple[float, float]) -> SectionShape:
+        """Copy with one control point replaced."""
+        pts = list(self.points)
+        pts[index] = (float(point[0]), float(point[1]))
+        return replace(self, points=tuple(pts))
+
+
+@dataclass(frozen=True)
+class HullSketch:
+    """The editable curves of a hull.
+
+    Attributes
+    ----------
+    plan : Curve
+        Half-breadth at the gunwale b(x) >= 0 (0 at a pointed end, > 0 at a transom).
+    keel : Curve
+        Keel (rocker) line k(x), height of the centreline bottom above the baseline.
+    sheer : Curve
+        Gunwale height s(x); the local depth is d(x) = s(x) - k(x) > 0.
+    sections : tuple of SectionShape, sorted by x, all with the same number of points
+        (so chines run continuously from one shape to the next).
+    station_count : int
+        How many stations :func:`generate_stations` makes, evenly spaced over the length.
+    """
+
+    plan: Curve
+    keel: Curve
+    sheer: Curve
+    sections: tuple[SectionShape, ...]
+    station_count: int = 41
+
+    @property
+    def length(self) -> float:
+        xs = [p[0] for p in self.plan.points]
+        return float(xs[-1] - xs[0])
+
+    @property
+    def x_range(self) -> tuple[float, float]:
+        xs = [p[0] for p in self.plan.points]
+        return float(xs[0]), float(xs[-1])
+
+
+@dataclass(frozen=True, eq=False)
+class Stations:
+    """A table of offsets: half sections from the centreline to the gunwale.
+
+    Attributes
+    ----------
+    x : (S,) array
+        Station positions, strictly increasing (m).
+    half_sections : tuple of (n_i, 2) arrays
+        Points (y, z) of each half section from the centreline (y = 0) to the
+        gunwale, the last point being the gunwale.
+    """
+
+    x: FloatArray
+    half_sections: tuple[FloatArray, ...]
+
+    def __post_init__(self) -> None:
+        x = np.asarray(self.x, dtype=float)
+        object.__setattr__(self, "x", x)
+        object.__setattr__(
+            self, "half_sections", tuple(np.asarray(h, dtype=float) for h in self.half_sections)
+        )
+        if x.ndim != 1 or x.size < 2:
+            raise ShapeError("a hull needs at least two stations")
+        if len(self.half_sections) != x.size:
+            raise ShapeError("each station needs exactly one half section")
+        if not np.all(np.isfinite(x)) or np.any(np.diff(x) <= 0):
+            raise ShapeError("station positions must be finite and strictly increasing")
+        for xi, h in zip(x, self.half_sections):
+            validate_half_section(h, f"station at x = {xi:.3f} m")
+        if max(float(np.max(h[:, 0])) for h in self.half_sections) <= 0:
+            raise ShapeError("the hull has no breadth at any station")
+
+    @property
+    def gunwale(self) -> FloatArray:
+        """(S, 2) starboard gunwale points (y, z)."""
+        return np.array([h[-1] for h in self.half_sections])
+
+    @property
+    def keel_z(self) -> float:
+        """Height of K, the lowest point of the hull (m)."""
+        return float(min(np.min(h[:, 1]) for h in self.half_sections))
+
+    @property
+    def length(self) -> float:
+        return float(self.x[-1] - self.x[0])
+
+    @property
+    def max_half_breadth(self) -> float:
+        return float(max(np.max(h[:, 0]) for h in self.half_sections))
+
+
+def validate_half_section(h: FloatArray, where: str) -> None:
+    """Raise :class:`ShapeError` unless ``h`` is a usable half section.
+
+    It must be an (n >= 2, 2) array of finite numbers, start on the centreline, stay on
+    the starboard side, and its mirrored, closed outline must not cross itself.
+    """
+    if h.ndim != 2 or h.shape[1] != 2 or h.shape[0] < 2:
+        raise ShapeError(f"{where}: a half section needs at least two (y, z) points")
+    if not np.all(np.isfinite(h)):
+        raise ShapeError(f"{where}: a point is not a finite number")
+    if abs(h[0, 0]) > 1e-9:
+        raise ShapeError(f"{where}: the half section must start on the centreline (y = 0)")
+    if np.any(h[:, 0] < -1e-9):
+        raise ShapeError(f"{where}: negative half-breadth (y < 0)")
+    if np.max(h[:, 0]) <= 1e-12:
+        return  # a pointed end: no area, nothing to cross
+    ring = _drop_repeats(np.vstack([h, h[::-1][:-1] * [-1.0, 1.0]]))
+    if len(ring) >= 3 and not shapely.is_valid(shapely.Polygon(ring)):
+        raise ShapeError(f"{where}: the section outline crosses itself")
+
+
+def _drop_repeats(ring: FloatArray) -> FloatArray:
+    keep = np.ones(len(ring), dtype=bool)
+    keep[1:] = np.any(np.abs(np.diff(ring, axis=0)) > 1e-12, axis=1)
+    return ring[keep]
+
+
+def _check_curve(curve: Curve, name: str, min_points: int = 2) -> FloatArray:
+    p = np.asarray(curve.points, dtype=float)
+    if p.ndim != 2 or p.shape[1] != 2 or len(p) < min_points:
+        raise ShapeError(f"the {name} needs at least {min_points} points")
+    if not np.all(np.isfinite(p)):
+        raise ShapeError(f"the {name} has a point that is not a finite number")
+    if np.any(np.diff(p[:, 0]) <= 0):
+        raise ShapeError(f"the {name} points must run from aft to forward without going back")
+    return p
+
+
+def validate_sketch(sketch: HullSketch) -> None:
+    """Raise :class:`ShapeError` with a plain message if the sketch is impossible."""
+    plan = _check_curve(sketch.plan, "plan outline")
+    keel = _check_curve(sketch.keel, "keel line")
+    sheer = _check_curve(sketch.sheer, "sheer line")
+    if np.any(plan[:, 1] < 0):
+        raise ShapeError("the plan outline has a negative half-breadth")
+    if np.max(plan[:, 1]) <= 0:
+        raise ShapeError("the plan outline has no breadth anywhere")
+    x0, x1 = plan[0, 0], plan[-1, 0]
+    for name, c in (("keel line", keel), ("sheer line", sheer)):
+        if abs(c[0, 0] - x0) > 1e-6 or abs(c[-1, 0] - x1) > 1e-6:
+            raise ShapeError(f"the {name} must span the same length as the plan outline")
+    if not 3 <= sketch.station_count <= 401:
+        raise ShapeError("the station count must be between 3 and 401")
+    xs = np.linspace(x0, x1, 201)
+    depth = sketch.sheer(xs) - sketch.keel(xs)
+    if np.any(depth <= 0):
+        bad = xs[np.argmin(depth)]
+        raise ShapeError(f"the sheer is not above the keel near x = {bad:.3f} m")
+    if not sketch.sections:
+        raise ShapeError("the hull needs at least one section shape")
+    counts = {len(s.points) for s in sketch.sections}
+    if len(counts) != 1:
+        raise ShapeError("all section shapes must have the same number of points")
+    if any(np.diff([s.x for s in sketch.sections]) <= 0):
+        raise ShapeError("section shapes must be placed at different, increasing positions")
+    for s in sketch.sections:
+        p = np.asarray(s.points, dtype=float)
+        where = f"section shape at x = {s.x:.3f} m"
+        if len(p) < 2:
+            raise ShapeError(f"{where}: needs at least two points")
+        if not np.all(np.isfinite(p)):
+            raise ShapeError(f"{where}: a point is not a finite number")
+        if abs(p[0, 0]) > 1e-9:
+            raise ShapeError(f"{where}: the first point must be on the centreline (u = 0)")
+        if np.any(p[1:, 0] <= 0):
+            raise ShapeError(f"{where}: only the first point may sit on the centreline")
+        if np.any(np.abs(p[-1] - 1.0) > 1e-9):
+            raise ShapeError(f"{where}: the last point must be the gunwale (1, 1)")
+        if np.any(p[:, 1] < -1e-9):
+            raise ShapeError(f"{where}: a point lies below the keel line (v < 0)")
+        validate_half_section(
+            sample_polyline(p, s.smooth, SMOOTH_SAMPLES_PER_SPAN), where
+        )
+
+
+def _blended_shape(sketch: HullSketch, x: float) -> tuple[FloatArray, bool]:
+    secs = sketch.sections
+    xs = np.array([s.x for s in secs])
+    if len(secs) == 1 or x <= xs[0]:
+        s = secs[0]
+        return np.asarray(s.points, dtype=float), s.smooth
+    if x >= xs[-1]:
+        s = secs[-1]
+        return np.asarray(s.points, dtype=float), s.smooth
+    i = int(np.searchsorted(xs, x, side="right") - 1)
+    w = (x - xs[i]) / (xs[i + 1] - xs[i])
+    a = np.asarray(secs[i].points, dtype=float)
+    b = np.asarray(secs[i + 1].points, dtype=float)
+    smooth = secs[i].smooth if w < 0.5 else secs[i + 1].smooth
+    return (1 - w) * a + w * b, smooth
+
+
+def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
+    """Turn the sketch into ``count`` evenly spaced stations (default: its own count).
+
+    Raises
+    ------
+    ShapeError
+        If the sketch is impossible (see :func:`validate_sketch`).
+    """
+    validate_sketch(sketch)
+    n = sketch.station_count if count is None else count
+    x0, x1 = sketch.x_range
+    xs = np.linspace(x0, x1, n)
+    b = sketch.plan(xs)
+    k = sketch.keel(xs)
+    d = sketch.sheer(xs) - k
+    halves = []
+    for xi, bi, ki, di in zip(xs, b, k, d):
+        shape, smooth = _blended_shape(sketch, float(xi))
+        uv = sample_polyline(shape, smooth, SMOOTH_SAMPLES_PER_SPAN)
+        halves.append(np.column_stack([uv[:, 0] * max(bi, 0.0), ki + uv[:, 1] * di]))
+    return Stations(xs, tuple(halves))
+
+
+def scale_breadth(sketch: HullSketch, factor: float) -> HullSketch:
+    """Copy of the sketch with every half-breadth multiplied by ``factor`` (> 0)."""
+    if not factor > 0:
+        raise ShapeError("the breadth scale must be positive")
+    pts = tuple((x, b * factor) for x, b in sketch.plan.points)
+    return replace(sketch, plan=replace(sketch.plan, points=pts))
+

@@ -1,0 +1,357 @@
+"""What goes into the boat: crew, items, shell materials, bilge water; the weight build-up.
+
+Positions are in hull coordinates (m): x forward from the aft end, y to starboard, z up.
+Masses in kg.  Defaults come from published sources (named beside each) or are marked
+as common practice; every one of them is editable.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+from numpy.typing import NDArray
+
+from hydro.errors import LoadError
+from hydro.hull import Stations
+from hydro.sections import build_section_table, cut, heel_frame
+
+__all__ = [
+    "CrewMember",
+    "MassItem",
+    "Material",
+    "Loads",
+    "WeightLine",
+    "WeightSummary",
+    "MATERIAL_PRESETS",
+    "WATER_PRESETS",
+    "CREW_MASS_KG",
+    "HEAVY_CREW_MASS_KG",
+    "SEATED_CG_ABOVE_SEAT_M",
+    "shell_panels",
+    "weight_build_up",
+    "water_density",
+]
+
+FloatArray = NDArray[np.float64]
+
+#: Design crew mass per adult: ISO 14946:2021 and the IMO IS Code (75 kg per person).
+CREW_MASS_KG = 75.0
+#: Heavier crew option: US Coast Guard assumed average weight per person,
+#: 46 CFR 170.090 (185 lb).
+HEAVY_CREW_MASS_KG = 84.0
+#: Seated person's centre of gravity above the seat: IMO A.749(18) 3.5.2.7, HSC Code 2.10.
+SEATED_CG_ABOVE_SEAT_M = 0.30
+
+#: Water densities (kg/m^3).  fresh: ITTC 7.5-02-01-03 Table 1 at 20 degC (998.2072);
+#: sea: ship practice 1.025 t/m^3 (Barrass & Derrett), ITTC Table 3 gives 1024.8 at 20 degC.
+WATER_PRESETS: dict[str, float] = {"fresh": 998.2, "sea": 1025.0}
+
+#: Areal densities of shell materials (kg/m^2 per layer), REFERENCES-style sources:
+MATERIAL_PRESETS: dict[str, tuple[float, str]] = {
+    "single-wall corrugated board": (0.55, "derived from liner/medium grammages (Kirwan 2005)"),
+    "double-wall corrugated board": (0.90, "derived from liner/medium grammages (Kirwan 2005)"),
+    "triple-wall corrugated board": (1.4, "from memory"),
+    "duct tape": (0.25, "tape thickness ~0.25 mm x ~1.1 g/cm3; density from memory"),
+    "latex paint, one coat": (0.04, "Resene spreading rate; film density from memory"),
+    "okoume plywood 4 mm": (1.8, "supplier sheet (okoume ~450 kg/m3)"),
+    "okoume plywood 6 mm": (2.7, "supplier sheet (okoume ~450 kg/m3)"),
+    "glass/epoxy sheathing": (0.4, "from memory, ~200 g/m2 cloth hand lay-up"),
+}
+
+SURFACES = ("bottom", "sides", "ends")
+
+
+@dataclass(frozen=True)
+class CrewMember:
+    """A seated person.
+
+    Attributes
+    ----------
+    name : str
+    mass : kg (default 75, ISO 14946 / IMO IS Code)
+    x : seat position along the hull (m)
+    y : side offset of the seat from the centreline (m, + starboard)
+    seat_height : seat surface above the inside of the bottom at x (m); the inside of
+        the bottom is the lowest hull point at x plus the bottom thickness (common
+        practice, no source)
+    cg_above_seat : centre of gravity above the seat (m, default 0.30, IMO A.749(18))
+    """
+
+    name: str
+    x: float
+    mass: float = CREW_MASS_KG
+    y: float = 0.0
+    seat_height: float = 0.05
+    cg_above_seat: float = SEATED_CG_ABOVE_SEAT_M
+
+
+@dataclass(frozen=True)
+class MassItem:
+    """A lumped mass (ballast, fitting, gear) at (x, y, z) in hull coordinates."""
+
+    name: str
+    mass: float
+    x: float
+    y: float = 0.0
+    z: float = 0.0
+
+
+@dataclass(frozen=True)
+class Material:
+    """A shell material applied over whole hull surfaces.
+
+    Attributes
+    ----------
+    name : str
+    areal_density : kg/m^2 per layer
+    layers : how many layers (>= 0)
+    surfaces : which of "bottom", "sides", "ends" it covers
+    """
+
+    name: str
+    areal_density: float
+    layers: float = 1.0
+    surfaces: tuple[str, ...] = SURFACES
+
+
+@dataclass(frozen=True)
+class Loads:
+    """Everything the boat carries.
+
+    Attributes
+    ----------
+    crew, items, materials : the load items
+    bottom_thickness : hull bottom thickness (m); seats stand on its inside
+    bilge_water_depth : depth of loose water above the inside of the lowest point (m)
+    wet_factor : multiplies every material mass (1.0 dry; soaked cardboard 1.5 or more)
+    """
+
+    crew: tuple[CrewMember, ...] = ()
+    items: tuple[MassItem, ...] = ()
+    materials: tuple[Material, ...] = ()
+    bottom_thickness: float = 0.0
+    bilge_water_depth: float = 0.0
+    wet_factor: float = 1.0
+
+
+@dataclass(frozen=True)
+class WeightLine:
+    """One row of the weight schedule (kg, m)."""
+
+    name: str
+    kind: str
+    mass: float
+    x: float
+    y: float
+    z: float
+
+
+@dataclass(frozen=True)
+class WeightSummary:
+    """The weight build-up.
+
+    Attributes
+    ----------
+    lines : every item with its mass and centre
+    mass : total displacement mass Delta (kg)
+    lcg, tcg, vcg : centre of gravity (m, hull coordinates)
+    kg : height of G above K, the lowest point of the hull (m)
+    free_surface_moment : rho_l * i of loose water (kg m), so FSC = this / Delta (m)
+    """
+
+    lines: tuple[WeightLine, ...]
+    mass: float
+    lcg: float
+    tcg: float
+    vcg: float
+    kg: float
+    free_surface_moment: float = 0.0
+
+    @property
+    def fsc(self) -> float:
+        """Free-surface correction to GM (m), Barrass & Derrett F13."""
+        return self.free_surface_moment / self.mass if self.mass > 0 else 0.0
+
+
+@dataclass(frozen=True, eq=False)
+class ShellPanels:
+    """Hull surface split into panels, both sides included.
+
+    Attributes
+    ----------
+    area : (P,) m^2
+    centroid : (P, 3) m (y = 0 for mirrored pairs)
+    surface : (P,) str, one of "bottom", "sides", "ends"
+    """
+
+    area: FloatArray
+    centroid: FloatArray
+    surface: NDArray[np.str_] = field(repr=False)
+
+
+def water_density(value: str | float) -> float:
+    """Density from a preset name ("fresh", "sea") or a number in kg/m^3 (500-1500)."""
+    if isinstance(value, str):
+        key = value.strip().lower()
+        if key in WATER_PRESETS:
+            return WATER_PRESETS[key]
+        try:
+            value = float(key)
+        except ValueError:
+            raise LoadError(f"unknown water '{value}': use fresh, sea or a density in kg/m3") from None
+    rho = float(value)
+    if not math.isfinite(rho) or not 500.0 <= rho <= 1500.0:
+        raise LoadError(f"water density {rho} kg/m3 is out of range (500 to 1500)")
+    return rho
+
+
+def _resample_girth(h: FloatArray, n: int) -> FloatArray:
+    seg = np.hypot(*np.diff(h, axis=0).T)
+    s = np.concatenate([[0.0], np.cumsum(seg)])
+    if s[-1] <= 0:
+        return np.repeat(h[:1], n, axis=0)
+    t = np.linspace(0.0, s[-1], n)
+    return np.column_stack([np.interp(t, s, h[:, 0]), np.interp(t, s, h[:, 1])])
+
+
+def shell_panels(stations: Stations) -> ShellPanels:
+    """Split the hull surface (both sides, plus transoms) into flat triangles.
+
+    Panels between stations are classed "bottom" when their normal is nearer vertical
+    than horizontal, otherwise "sides" (common practice, no source); the end sections
+    of a blunt hull (transoms) are "ends".
+    """
+    halves = stations.half_sections
+    n = len(halves[0])
+    if any(len(h) != n for h in halves):
+        n = 48
+        halves = tuple(_resample_girth(h, n) for h in halves)
+    x = stations.x
+    areas: list[FloatArray] = []
+    cents: list[FloatArray] = []
+    kinds: list[NDArray[np.str_]] = []
+    for i in range(len(x) - 1):
+        a = np.column_stack([np.full(n, x[i]), halves[i]])
+        b = np.column_stack([np.full(n, x[i + 1]), halves[i + 1]])
+        for p, q, r in ((a[:-1], b[:-1], b[1:]), (a[:-1], b[1:], a[1:])):
+            nrm = np.cross(q - p, r - p)
+            area = 0.5 * np.linalg.norm(nrm, axis=1)
+            cen = (p + q + r) / 3.0
+            kind = np.where(np.abs(nrm[:, 2]) >= np.abs(nrm[:, 1]), "bottom", "sides")
+            areas.append(2.0 * area)
+            cents.append(cen * [1.0, 0.0, 1.0])
+            kinds.append(kind)
+    table = build_section_table(stations)
+    for end in (0, len(x) - 1):
+        area, _, qz = table.totals[:, end]
+        if area > 1e-12:
+            areas.append(np.array([area]))
+            cents.append(np.array([[x[end], 0.0, qz / area]]))
+            kinds.append(np.array(["ends"]))
+    return ShellPanels(np.concatenate(areas), np.vstack(cents), np.concatenate(kinds))
+
+
+def _keel_height_at(stations: Stations, x: float) -> float:
+    low = np.array([np.min(h[:, 1]) for h in stations.half_sections])
+    return float(np.interp(x, stations.x, low))
+
+
+def _check_number(value: float, what: str, low: float = -math.inf, high: float = math.inf) -> None:
+    if not isinstance(value, (int, float)) or not math.isfinite(value):
+        raise LoadError(f"{what} is not a number")
+    if not low <= value <= high:
+        raise LoadError(f"{what} = {value:g} is out of range ({low:g} to {high:g})")
+
+
+def validate_loads(loads: Loads, stations: Stations) -> None:
+    """Raise :class:`LoadError` for impossible load values."""
+    x0, x1 = float(stations.x[0]), float(stations.x[-1])
+    reach = 5.0 * max(stations.length, 1.0)
+    for c in loads.crew:
+        _check_number(c.mass, f"crew '{c.name}' mass (kg)", 0.0, 500.0)
+        _check_number(c.x, f"crew '{c.name}' seat position (m)", x0, x1)
+        _check_number(c.y, f"crew '{c.name}' side offset (m)", -reach, reach)
+        _check_number(c.seat_height, f"crew '{c.name}' seat height (m)", 0.0, 3.0)
+        _check_number(c.cg_above_seat, f"crew '{c.name}' CG above seat (m)", 0.0, 2.0)
+    for it in loads.items:
+        _check_number(it.mass, f"item '{it.name}' mass (kg)", 0.0, 1e5)
+        for v, axis in ((it.x, "x"), (it.y, "y"), (it.z, "z")):
+            _check_number(v, f"item '{it.name}' {axis} (m)", -reach, reach)
+    for m in loads.materials:
+        _check_number(m.areal_density, f"material '{m.name}' areal density (kg/m2)", 0.0, 100.0)
+        _check_number(m.layers, f"material '{m.name}' layers", 0.0, 50.0)
+        unknown = set(m.surfaces) - set(SURFACES)
+        if unknown:
+            raise LoadError(f"material '{m.name}': unknown surface {sorted(unknown)[0]!r}")
+    _check_number(loads.bottom_thickness, "bottom thickness (m)", 0.0, 0.5)
+    _check_number(loads.bilge_water_depth, "bilge water depth (m)", 0.0, 5.0)
+    _check_number(loads.wet_factor, "wet mass factor", 0.5, 5.0)
+
+
+def weight_build_up(
+    loads: Loads, stations: Stations, rho: float, panels: ShellPanels | None = None
+) -> WeightSummary:
+    """Total mass and centre of gravity of everything in ``loads``.
+
+    Crew CG height = inside of the bottom at the seat + seat height + CG above seat.
+    Materials: areal density x layers x wet factor over the chosen surfaces, centred on
+    the real surface.  Bilge water: the hull volume up to the water level (thin-shell
+    approximation: the outside of the hull stands for the inside), with its free-surface
+    moment rho * i (Barrass & Derrett F13).
+
+    Raises
+    ------
+    LoadError
+        For impossible values, or when nothing at all is aboard.
+    """
+    validate_loads(loads, stations)
+    lines: list[WeightLine] = []
+    for c in loads.crew:
+        z = (
+            _keel_height_at(stations, c.x)
+            + loads.bottom_thickness
+            + c.seat_height
+            + c.cg_above_seat
+        )
+        lines.append(WeightLine(c.name, "crew", c.mass, c.x, c.y, z))
+    for it in loads.items:
+        lines.append(WeightLine(it.name, "item", it.mass, it.x, it.y, it.z))
+    if loads.materials:
+        panels = panels or shell_panels(stations)
+        for m in loads.materials:
+            sel = np.isin(panels.surface, m.surfaces)
+            area = float(panels.area[sel].sum())
+            mass = m.areal_density * m.layers * loads.wet_factor * area
+            if area > 0:
+                cen = panels.area[sel] @ panels.centroid[sel] / area
+            else:
+                cen = np.zeros(3)
+            lines.append(WeightLine(m.name, "material", mass, *map(float, cen)))
+    fs_moment = 0.0
+    if loads.bilge_water_depth > 0:
+        level = stations.keel_z + loads.bottom_thickness + loads.bilge_water_depth
+        table = build_section_table(stations)
+        frame = heel_frame(table, np.zeros(1))
+        c = cut(table, frame, np.full((1, table.x.size), level))
+        vol = float(c.area[0] @ table.weights)
+        if vol > 0:
+            lines.append(
+                WeightLine(
+                    "bilge water",
+                    "water",
+                    rho * vol,
+                    float((c.area[0] * table.x) @ table.weights / vol),
+                    float(c.q_xi[0] @ table.weights / vol),
+                    float(c.q_eta[0] @ table.weights / vol),
+                )
+            )
+            fs_moment = rho * float(c.breadth_m2[0] @ table.weights)
+    mass = sum(line.mass for line in lines)
+    if not mass > 0:
+        raise LoadError("nothing is aboard: add crew, materials or items with mass")
+    lcg = sum(line.mass * line.x for line in lines) / mass
+    tcg = sum(line.mass * line.y for line in lines) / mass
+    vcg = sum(line.mass * line.z for line in lines) / mass
+    return WeightSummary(tuple(lines), mass, lcg, tcg, vcg, vcg - stations.keel_z, fs_moment)
