@@ -94,10 +94,11 @@ def _report(args: argparse.Namespace) -> tuple[Analysis, str]:
     if args.offsets:
         if args.design:
             raise BadInput("give either a design file or --offsets, not both")
-        stations = read_offsets(args.offsets)
+        loads = _lumped_load(args)
         rho = water_density(args.water)
         settings = _settings(args, AnalysisSettings())
-        return analyse_stations(stations, _lumped_load(args), rho, settings), Path(args.offsets).stem
+        stations = read_offsets(args.offsets)
+        return analyse_stations(stations, loads, rho, settings), Path(args.offsets).stem
     if not args.design:
         raise BadInput("give a design file, or --offsets HULL.csv --mass KG --cg X,Y,Z")
     design = load_design(args.design)

@@ -37,7 +37,7 @@ def pchip_slopes(t: FloatArray, v: FloatArray) -> FloatArray:
     same_sign = delta[:-1] * delta[1:] > 0
     w1 = 2 * h[1:] + h[:-1]
     w2 = h[1:] + 2 * h[:-1]
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         harmonic = (w1 + w2) / (w1 / delta[:-1] + w2 / delta[1:])
     d[1:-1] = np.where(same_sign, harmonic, 0.0)
     d[0] = _end_slope(h[0], h[1], delta[0], delta[1])

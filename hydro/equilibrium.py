@@ -6,11 +6,13 @@ down).  Two conditions fix (h, tau) at each heel angle:
 
 * volume:  V(h, tau) = Delta / rho
 * no pitch moment: B and G on one vertical in the longitudinal plane, which for this
-  plane reads  (x_B - x_G) + tau * (eta_B - eta_G) = 0.
+  plane reads  F(h, tau) = (x_B - x_G) V + tau (eta_B - eta_G) V = 0.
 
-Both are solved by Newton's method with the exact Jacobian from the waterline breadths
-(d area / dh = breadth), vectorised over all angles; steps are limited so the waterline
-never leaves the hull.  At fixed trim only the volume condition is used.
+Fast path: Newton's method on both unknowns with the exact Jacobian from the waterline
+breadths (d area / dh = breadth), vectorised over all angles.  Angles where it has not
+converged after a few steps are solved by a safeguarded path: trim is bracketed and
+found by Newton-or-bisection, and for every trial trim the waterline height is solved
+exactly (volume is monotone in h), so the volume condition always holds.
 """
 
 from __future__ import annotations
@@ -28,6 +30,8 @@ FloatArray = NDArray[np.float64]
 
 #: Relative tolerance on volume and on the pitch-moment balance.
 TOLERANCE = 1e-10
+#: Joint Newton steps before the safeguarded path takes over.
+FAST_ITERATIONS = 12
 MAX_ITERATIONS = 60
 
 
@@ -43,7 +47,7 @@ class Equilibrium:
     x_b, xi_b, eta_b : (A,) centre of buoyancy (m): along x, and in the heeled frame
     waterplane : (A,) waterplane area projected on the body x-y plane (m^2)
     cut : Cut at the solution, per station
-    converged : (A,) bool
+    converged : (A,) bool; False where no floating position was found
     """
 
     h: FloatArray
@@ -54,34 +58,149 @@ class Equilibrium:
     eta_b: FloatArray
     waterplane: FloatArray
     cut: Cut
-    converged: FloatArray
+    converged: NDArray[np.bool_]
 
 
-def level_waterline(table: SectionTable, frame: HeelFrame, volume: float) -> FloatArray:
-    """Waterline height h at zero trim giving ``volume``, for each angle.
+def _levels(table: SectionTable, h: FloatArray, tau: FloatArray) -> FloatArray:
+    return h[:, None] + tau[:, None] * table.x[None, :]
+
+
+def waterline_for_trim(
+    table: SectionTable, frame: HeelFrame, volume: float, tau: FloatArray, h_start: FloatArray
+) -> tuple[FloatArray, NDArray[np.bool_]]:
+    """Waterline height h giving ``volume`` at the trim slopes ``tau``, for each angle.
 
     Newton's method on the monotone volume curve, falling back to bisection whenever a
-    step would leave the bracket.  Returns (A,) heights, NaN where even the whole closed
-    hull displaces less than ``volume``.
+    step would leave the bracket.  Returns (h, converged); not converged where even the
+    whole closed hull displaces less than ``volume``.
     """
-    lo = frame.eta_low.copy()
-    hi = frame.eta_high.copy()
-    n_st = table.x.size
-    full = table.totals[0] @ table.weights
-    h = lo + (hi - lo) * 0.5
+    x = table.x
+    lo = frame.eta_low - np.maximum(tau * x[0], tau * x[-1])
+    hi = frame.eta_high - np.minimum(tau * x[0], tau * x[-1])
+    h = np.where((h_start > lo) & (h_start < hi), h_start, 0.5 * (lo + hi))
     tol = TOLERANCE * volume
+    full = table.totals[0] @ table.weights
+    ok = np.zeros(h.size, dtype=bool)
     for _ in range(MAX_ITERATIONS):
-        c = cut(table, frame, np.repeat(h[:, None], n_st, axis=1), full=False)
+        c = cut(table, frame, _levels(table, h, tau), full=False)
         f = c.area @ table.weights - volume
-        if np.all(np.abs(f) <= tol):
+        ok = np.abs(f) <= tol
+        if ok.all():
             break
         hi = np.where(f > 0, h, hi)
         lo = np.where(f > 0, lo, h)
         slope = c.breadth @ table.weights
         step = h - f / np.where(slope > 0, slope, 1.0)
         inside = (slope > 0) & (step > lo) & (step < hi)
-        h = np.where(inside, step, 0.5 * (lo + hi))
-    return np.where(full >= volume, h, np.nan)
+        h = np.where(ok, h, np.where(inside, step, 0.5 * (lo + hi)))
+    return h, ok & (full >= volume)
+
+
+def level_waterline(table: SectionTable, frame: HeelFrame, volume: float) -> FloatArray:
+    """Waterline height at zero trim giving ``volume`` (NaN where the hull cannot)."""
+    zero = np.zeros(frame.phi.size)
+    h, ok = waterline_for_trim(table, frame, volume, zero, 0.5 * (frame.eta_low + frame.eta_high))
+    return np.where(ok, h, np.nan)
+
+
+@dataclass(frozen=True, eq=False)
+class _Residual:
+    """Volume and pitch residuals with their Jacobian at (h, tau)."""
+
+    f1: FloatArray
+    f2: FloatArray
+    j11: FloatArray
+    j12: FloatArray
+    j21: FloatArray
+    j22: FloatArray
+
+
+def _residual(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    h: FloatArray, tau: FloatArray,
+) -> _Residual:
+    x, w, wx = table.x, table.weights, table.weights_x
+    hs = _levels(table, h, tau)
+    c = cut(table, frame, hs, full=False)
+    vol = c.area @ w
+    q_eta = c.q_eta @ w
+    bx = c.breadth * x
+    bh = c.breadth * hs
+    aw = c.breadth @ w
+    sx = bx @ w
+    moment = q_eta - eta_g * vol
+    return _Residual(
+        f1=vol - volume,
+        f2=c.area @ wx - x_g * vol + tau * moment,
+        j11=aw,
+        j12=sx,
+        j21=c.breadth @ wx - x_g * aw + tau * (bh @ w - eta_g * aw),
+        j22=bx @ wx - x_g * sx + moment + tau * ((bh * x) @ w - eta_g * sx),
+    )
+
+
+def _joint_newton(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    h: FloatArray, tau: FloatArray,
+) -> tuple[FloatArray, FloatArray, NDArray[np.bool_]]:
+    length = float(table.x[-1] - table.x[0])
+    span = float(np.max(frame.eta_high - frame.eta_low))
+    max_dh, max_dtau = 0.25 * span, 0.25 * span / length
+    tol_v, tol_m = TOLERANCE * volume, TOLERANCE * volume * length
+    done = np.zeros(h.size, dtype=bool)
+    for _ in range(FAST_ITERATIONS):
+        r = _residual(table, frame, volume, x_g, eta_g, h, tau)
+        done = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
+        if done.all():
+            break
+        det = r.j11 * r.j22 - r.j12 * r.j21
+        good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
+        safe = np.where(good, det, 1.0)
+        dh = np.clip((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh, max_dh)
+        dtau = np.clip((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau, max_dtau)
+        move = good & ~done
+        h = np.where(move, h + dh, h)
+        tau = np.where(move, tau + dtau, tau)
+        if not move.any():
+            break
+    return h, tau, done
+
+
+def _bracketed_trim(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    tau_start: FloatArray, h_start: FloatArray,
+) -> tuple[FloatArray, FloatArray, NDArray[np.bool_]]:
+    """Safeguarded free-trim solve: exact volume at every trial trim, trim bracketed."""
+    length = float(table.x[-1] - table.x[0])
+    limit = 20.0 * float(np.max(frame.eta_high - frame.eta_low)) / length
+    tol_m = TOLERANCE * volume * length
+
+    def pitch(tau: FloatArray, h_guess: FloatArray) -> tuple[FloatArray, FloatArray, _Residual]:
+        h, ok = waterline_for_trim(table, frame, volume, tau, h_guess)
+        r = _residual(table, frame, volume, x_g, eta_g, h, tau)
+        return h, np.where(ok, r.f2, np.nan), r
+
+    lo = np.full(tau_start.size, -limit)
+    hi = np.full(tau_start.size, limit)
+    _, f_lo, _ = pitch(lo, h_start)
+    _, f_hi, _ = pitch(hi, h_start)
+    possible = np.isfinite(f_lo) & np.isfinite(f_hi) & (np.sign(f_lo) != np.sign(f_hi))
+    tau = np.clip(tau_start, lo * 0.999, hi * 0.999)
+    h = h_start
+    done = np.zeros(tau.size, dtype=bool)
+    for _ in range(MAX_ITERATIONS):
+        h, f, r = pitch(tau, h)
+        done = possible & (np.abs(f) <= tol_m)
+        if (done | ~possible).all():
+            break
+        below = np.sign(f) == np.sign(f_lo)
+        lo = np.where(below, tau, lo)
+        hi = np.where(below, hi, tau)
+        slope = r.j22 - r.j21 * r.j12 / np.where(r.j11 > 0, r.j11, 1.0)
+        step = tau - f / np.where(slope != 0, slope, 1.0)
+        inside = (step > np.minimum(lo, hi)) & (step < np.maximum(lo, hi)) & (slope != 0)
+        tau = np.where(done, tau, np.where(inside, step, 0.5 * (lo + hi)))
+    return h, tau, done
 
 
 def solve_equilibrium(
@@ -105,70 +224,21 @@ def solve_equilibrium(
     h0, tau0 : (A,) starting waterline height and trim slope
     free_trim : solve for trim as well; otherwise keep ``tau0``
     """
-    x = table.x
-    w = table.weights
-    wx = table.weights_x
     h = np.array(h0, dtype=float)
     tau = np.array(tau0, dtype=float)
-    span = float(np.max(frame.eta_high - frame.eta_low))
-    length = float(x[-1] - x[0])
-    max_dh = 0.25 * span
-    max_dtau = 0.25 * span / length
-    tol_v = TOLERANCE * volume
-    tol_m = TOLERANCE * volume * length
-    converged = np.zeros(h.size, dtype=bool)
-    for _ in range(MAX_ITERATIONS):
-        hs = h[:, None] + tau[:, None] * x[None, :]
-        c = cut(table, frame, hs, full=False)
-        vol = c.area @ w
-        aw = c.breadth @ w
-        f1 = vol - volume
-        if free_trim:
-            q_eta = c.q_eta @ w
-            m_x = c.area @ wx
-            f2 = m_x - x_g * vol + tau * (q_eta - eta_g * vol)
-            converged = (np.abs(f1) <= tol_v) & (np.abs(f2) <= tol_m)
-        else:
-            converged = np.abs(f1) <= tol_v
-        if converged.all():
-            break
-        dry = aw <= 1e-12 * length  # waterline outside the hull: walk back in
-        if free_trim:
-            bx = c.breadth * x
-            sx = bx @ w
-            bh = c.breadth * hs
-            j11, j12 = aw, sx
-            j21 = c.breadth @ wx - x_g * aw + tau * (bh @ w - eta_g * aw)
-            j22 = (
-                bx @ wx
-                - x_g * sx
-                + (q_eta - eta_g * vol)
-                + tau * ((bh * x) @ w - eta_g * sx)
+    if free_trim:
+        h, tau, ok = _joint_newton(table, frame, volume, x_g, eta_g, h, tau)
+        if not ok.all():
+            idx = np.flatnonzero(~ok)
+            sub = frame.take(idx)
+            h[idx], tau[idx], ok[idx] = _bracketed_trim(
+                table, sub, volume, x_g, eta_g[idx], tau[idx], np.nan_to_num(h[idx])
             )
-            det = j11 * j22 - j12 * j21
-            ok = np.abs(det) > 1e-14 * np.maximum(np.abs(j11 * j22), 1e-300)
-            safe = np.where(ok, det, 1.0)
-            dh = np.where(ok, (-f1 * j22 + f2 * j12) / safe, -f1 / np.where(dry, 1.0, aw))
-            dtau = np.where(ok, (f1 * j21 - f2 * j11) / safe, 0.0)
-        else:
-            dh = -f1 / np.where(dry, 1.0, aw)
-            dtau = np.zeros_like(dh)
-        dh = np.where(dry, np.where(f1 < 0, max_dh, -max_dh), dh)
-        dtau = np.where(dry, 0.0, dtau)
-        dh = np.clip(dh, -max_dh, max_dh)
-        dtau = np.clip(dtau, -max_dtau, max_dtau)
-        h = np.where(converged, h, h + dh)
-        tau = np.where(converged, tau, tau + dtau)
-    hs = h[:, None] + tau[:, None] * x[None, :]
-    c = cut(table, frame, hs)
+    else:
+        h, ok = waterline_for_trim(table, frame, volume, tau, h)
+    w, wx = table.weights, table.weights_x
+    c = cut(table, frame, _levels(table, h, tau))
     vol = c.area @ w
-    if not converged.all():  # the loop ran out: judge the final point itself
-        f1 = np.abs(vol - volume) <= tol_v
-        if free_trim:
-            f2 = c.area @ wx - x_g * vol + tau * (c.q_eta @ w - eta_g * vol)
-            converged = f1 & (np.abs(f2) <= tol_m)
-        else:
-            converged = f1
     safe_vol = np.where(vol > 0, vol, 1.0)
     return Equilibrium(
         h=h,
@@ -179,5 +249,5 @@ def solve_equilibrium(
         eta_b=(c.q_eta @ w) / safe_vol,
         waterplane=c.breadth @ w,
         cut=c,
-        converged=converged,
+        converged=ok,
     )

@@ -21,7 +21,7 @@ import numpy as np
 from hydro.design import AnalysisSettings, Design
 from hydro.errors import DesignFileError, HullwrightError
 from hydro.hull import Curve, HullSketch, SectionShape, Stations
-from hydro.loads import CrewMember, Loads, MassItem, Material
+from hydro.loads import CrewMember, Loads, MassItem, Material, validate_loads
 from hydro.stability import Analysis
 
 __all__ = [
@@ -314,6 +314,7 @@ def design_from_dict(data: Any) -> Design:
         )
         design.water_density  # noqa: B018 - validates the water entry
         settings.heel_angles()
+        validate_loads(design.loads, design.stations())
     except DesignFileError:
         raise
     except HullwrightError as e:

@@ -30,6 +30,7 @@ __all__ = [
     "HEAVY_CREW_MASS_KG",
     "SEATED_CG_ABOVE_SEAT_M",
     "shell_panels",
+    "validate_loads",
     "weight_build_up",
     "water_density",
 ]

@@ -99,6 +99,13 @@ class HeelFrame:
     eta_high: FloatArray
     totals: FloatArray
 
+    def take(self, idx: NDArray[np.intp]) -> HeelFrame:
+        """The frame for a subset of its angles."""
+        return HeelFrame(
+            self.phi[idx], self.cos[idx], self.sin[idx], self.eta[idx],
+            self.eta_low[idx], self.eta_high[idx], self.totals[:, idx],
+        )
+
 
 @dataclass(frozen=True, eq=False)
 class Cut:

@@ -11,14 +11,14 @@ station spacing h).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from numpy.typing import NDArray
 
 from hydro.equilibrium import Equilibrium, level_waterline, solve_equilibrium
 from hydro.loads import WeightSummary
-from hydro.sections import SectionTable, heel_frame
+from hydro.sections import HeelFrame, SectionTable, heel_frame
 
 __all__ = [
     "G_STANDARD",
@@ -29,6 +29,7 @@ __all__ = [
     "righting_curve",
     "analyse_table",
     "curve_area",
+    "flooding_mass",
 ]
 
 FloatArray = NDArray[np.float64]
@@ -133,8 +134,9 @@ class Analysis:
 
     Attributes
     ----------
-    status : "ok", "floods" (the gunwale is under water upright: an open boat swamps),
-        or "sinks" (even the whole closed hull cannot carry the load)
+    status : "ok"; "floods" (the gunwale is under water upright: an open boat swamps);
+        "unstable" (GM <= 0: the boat lolls or capsizes); or "sinks" (even the whole
+        closed hull cannot carry the load)
     message : one line for the user
     weights : the weight build-up
     hydrostatics, curve : None when status is "sinks"
@@ -158,7 +160,8 @@ def upright(
 ) -> Hydrostatics | None:
     """Upright (zero heel) equilibrium at free trim and its hydrostatics.
 
-    Returns None when the whole closed hull displaces less than the load.
+    Returns None when the whole closed hull displaces less than the load (or just as
+    much: then it hangs wholly under water with no waterplane).
     """
     volume = weights.mass / rho
     frame = heel_frame(table, np.zeros(1))
@@ -168,6 +171,8 @@ def upright(
     eq = solve_equilibrium(
         table, frame, volume, weights.lcg, np.array([weights.vcg]), h0, np.zeros(1), free_trim
     )
+    if not (eq.waterplane[0] > 0 and eq.converged[0]):  # no floating position
+        return None
     return _hydrostatics(table, weights, rho, eq)
 
 
@@ -290,6 +295,21 @@ def _crossings(heel: FloatArray, f: FloatArray, rising: bool) -> list[float]:
     return (heel[i] + (heel[i + 1] - heel[i]) * a[i] / (a[i] - b[i])).tolist()
 
 
+def _loose_water_shift(
+    table: SectionTable, frame: HeelFrame, weights: WeightSummary, rho: float, tau: FloatArray
+) -> FloatArray:
+    """(A,) loss of GZ from loose water flowing to the low side (m)."""
+    water = [line for line in weights.lines if line.kind == "water"]
+    if not water:
+        return np.zeros(frame.phi.size)
+    w = water[0]
+    volume = w.mass / rho
+    h0 = np.nan_to_num(level_waterline(table, frame, volume))
+    inside = solve_equilibrium(table, frame, volume, w.x, np.zeros_like(h0), h0, tau, free_trim=False)
+    fixed = frame.cos * w.y + frame.sin * w.z
+    return w.mass / weights.mass * (inside.xi_b - fixed)
+
+
 def righting_curve(
     table: SectionTable,
     weights: WeightSummary,
@@ -301,8 +321,11 @@ def righting_curve(
     """GZ at every angle in ``heel_deg`` from exact heeled equilibrium.
 
     All angles are solved together by Newton's method, starting from the upright
-    waterline turned with the boat.  The free-surface correction of loose water is
-    applied as a virtual rise of G (GZ - FSC sin(phi)), the usual GM-corrected practice.
+    waterline turned with the boat.  Loose (bilge) water is a weight that moves: at each
+    heel its surface is found inside the hull, parallel to the sea's, and the shift of its
+    centre reduces GZ (thin-shell approximation; its fore-and-aft shift is ignored).  At
+    small angles this is the free-surface correction FSC sin(phi); it also holds when the
+    water reaches the floor's edge, where the FSC formula does not.
     """
     heel_deg = np.asarray(heel_deg, dtype=float)
     phi = np.radians(heel_deg)
@@ -329,7 +352,7 @@ def righting_curve(
         xi_b[idx], tau[idx], h[idx], conv[idx] = retry.xi_b, retry.tau, retry.h, retry.converged
     else:
         xi_b, tau, h, conv = eq.xi_b, eq.tau, eq.h, eq.converged
-    gz = xi_b - xi_g - weights.fsc * s
+    gz = xi_b - xi_g - _loose_water_shift(table, frame, weights, rho, tau)
     gz = np.where(conv, gz, np.nan)
     with np.errstate(invalid="ignore", divide="ignore"):
         tan = np.tan(phi)
@@ -372,6 +395,30 @@ def righting_curve(
     )
 
 
+def flooding_mass(table: SectionTable, weights: WeightSummary, rho: float) -> float | None:
+    """Largest mass, with G where it is, that floats upright with the gunwale clear (kg).
+
+    Found by bisection on the mass (to 0.1 kg) with free trim; None if even a tiny load
+    puts the gunwale under (the sheer dips below the keel's waterline).
+    """
+
+    def freeboard(mass: float) -> float:
+        hs = upright(table, replace(weights, mass=mass, lines=()), rho)
+        return -1.0 if hs is None else hs.min_freeboard
+
+    lo = 1e-3 * weights.mass
+    hi = float(table.totals[0] @ table.weights) * rho
+    if freeboard(lo) <= 0:
+        return None
+    while hi - lo > 0.1:
+        mid = 0.5 * (lo + hi)
+        if freeboard(mid) > 0:
+            lo = mid
+        else:
+            hi = mid
+    return lo
+
+
 def analyse_table(
     table: SectionTable,
     weights: WeightSummary,
@@ -383,20 +430,39 @@ def analyse_table(
     base = upright(table, weights, rho, free_trim)
     if base is None:
         full = float(table.totals[0] @ table.weights) * rho
-        return Analysis(
-            "sinks",
-            f"Sinks: the load is {weights.mass:.0f} kg but the whole closed hull "
-            f"displaces only {full:.0f} kg.",
-            weights,
-            None,
-            None,
-        )
+        if weights.mass < full:
+            text = (
+                f"Sinks: no floating position with the centre of gravity at x = "
+                f"{weights.lcg:.2f} m; the hull would stand on end and go under."
+            )
+        else:
+            text = (
+                f"Sinks: the load is {weights.mass:.0f} kg but the whole closed hull "
+                f"displaces only {full:.0f} kg."
+            )
+        return Analysis("sinks", text, weights, None, None)
     curve = righting_curve(table, weights, rho, base, heel_deg, free_trim)
     if base.min_freeboard <= 0:
+        limit = flooding_mass(table, weights, rho)
+        over = f"; it floods at {limit:.0f} kg, {weights.mass - limit:.0f} kg too heavy" if limit else ""
         return Analysis(
             "floods",
             f"Floods: the gunwale is {-base.min_freeboard * 1000:.0f} mm under water at "
-            f"x = {base.min_freeboard_x:.2f} m with {weights.mass:.0f} kg aboard.",
+            f"x = {base.min_freeboard_x:.2f} m with {weights.mass:.0f} kg aboard{over}.",
+            weights,
+            base,
+            curve,
+        )
+    if base.gm <= 0:
+        if curve.loll_deg is not None:
+            text = f"lolls over to about {curve.loll_deg:.0f} degrees"
+            if curve.gunwale_immersion_deg is not None and curve.gunwale_immersion_deg <= curve.loll_deg:
+                text += ", past the point where the gunwale goes under"
+        else:
+            text = "finds no upright position and capsizes"
+        return Analysis(
+            "unstable",
+            f"Unstable: GM is {base.gm * 1000:.0f} mm, so the boat {text}.",
             weights,
             base,
             curve,

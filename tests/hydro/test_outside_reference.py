@@ -1,0 +1,63 @@
+"""Immersed volume and centroid of a heeled, trimmed sketched hull, cross-checked by
+trimesh (a general-purpose mesh library from PyPI): it slices a closed triangle mesh of
+the same stations by the same plane, caps the cut, and integrates the closed solid.
+
+Between stations our engine takes section quantities as linear in x, while the mesh is
+ruled (area quadratic in x); with 81 stations the two agree far inside 0.1 %.
+"""
+
+import numpy as np
+import pytest
+
+trimesh = pytest.importorskip("trimesh")
+pytest.importorskip("scipy")
+
+from hydro import generate_stations, load_design  # noqa: E402
+from hydro.sections import build_section_table, cut, heel_frame  # noqa: E402
+from tests.paths import SAMPLES  # noqa: E402
+
+
+def _mesh(stations):
+    rings = [np.vstack([h, (h[::-1] * [-1, 1])[:-1]]) for h in stations.half_sections]
+    n = len(rings[0])
+    assert all(len(r) == n for r in rings)
+    verts = np.vstack([np.column_stack([np.full(n, x), r]) for x, r in zip(stations.x, rings)])
+    faces = []
+    for i in range(len(rings) - 1):
+        for j in range(n):
+            a, b = i * n + j, i * n + (j + 1) % n
+            c, d = a + n, b + n
+            faces += [[a, c, b], [b, c, d]]
+    last = (len(rings) - 1) * n
+    for j in range(1, n - 1):  # end caps (transoms of the punt are convex)
+        faces.append([0, j, j + 1])
+        faces.append([last, last + j + 1, last + j])
+    mesh = trimesh.Trimesh(verts, np.array(faces), process=False)
+    if mesh.volume < 0:
+        mesh.invert()
+    return mesh
+
+
+@pytest.mark.parametrize("heel_deg,tau,h", [(0.0, 0.0, 0.09), (20.0, 0.02, 0.12), (35.0, -0.03, 0.05)])
+def test_volume_and_centroid_match_trimesh(heel_deg, tau, h):
+    design = load_design(SAMPLES / "heron-punt.json")
+    stations = generate_stations(design.hull, 81)
+    mesh = _mesh(stations)
+    assert mesh.is_watertight
+    table = build_section_table(stations)
+    assert mesh.volume == pytest.approx(table.totals[0] @ table.weights, rel=1e-3)
+
+    phi = np.radians(heel_deg)
+    normal = np.array([-tau, -np.sin(phi), np.cos(phi)])  # water: normal . p < h
+    wet = mesh.slice_plane(normal * h / normal.dot(normal), -normal, cap=True)
+    assert wet.is_watertight
+
+    frame = heel_frame(table, np.array([phi]))
+    c = cut(table, frame, (h + tau * table.x)[None, :])
+    vol = c.area[0] @ table.weights
+    x_b = (c.area[0] @ table.weights_x) / vol
+    xi, eta = (c.q_xi[0] @ table.weights) / vol, (c.q_eta[0] @ table.weights) / vol
+    y_b = np.cos(phi) * xi - np.sin(phi) * eta
+    z_b = np.sin(phi) * xi + np.cos(phi) * eta
+    assert vol == pytest.approx(wet.volume, rel=1e-3)
+    np.testing.assert_allclose([x_b, y_b, z_b], wet.center_mass, atol=1e-3 * stations.length)

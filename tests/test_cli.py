@@ -1,0 +1,89 @@
+"""The command line: report (text and JSON), offsets, and exit code 2 on bad input."""
+
+import json
+
+import pytest
+
+from app.cli import main
+from hydro import analyse, load_design
+from tests.paths import SAMPLES
+
+PUNT = str(SAMPLES / "heron-punt.json")
+REQUIRED = [
+    "displacement_kg", "volume_m3", "draft_m", "trim_deg", "KB_m", "BM_m", "KM_m", "KG_m",
+    "GM_m", "gunwale_immersion_deg", "gz",
+]
+
+
+@pytest.mark.parametrize("name", sorted(p.name for p in SAMPLES.glob("*.json")))
+def test_report_json_on_every_sample(capsys, name):
+    assert main(["report", str(SAMPLES / name), "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    for key in REQUIRED:
+        assert key in data, key
+    expected = analyse(load_design(SAMPLES / name))
+    assert data["GM_m"] == pytest.approx(expected.hydrostatics.gm)
+    assert [p["heel_deg"] for p in data["gz"]] == list(expected.curve.heel_deg)
+    assert data["status"] == "ok" and data["GM_m"] > 0
+
+
+def test_report_text(capsys):
+    assert main(["report", PUNT]) == 0
+    out = capsys.readouterr().out
+    assert "GM" in out and "not a certification" in out
+
+
+def test_offsets_then_report_on_the_table(tmp_path, capsys):
+    csv_path = tmp_path / "punt.csv"
+    assert main(["offsets", PUNT, "-o", str(csv_path)]) == 0
+    design = load_design(PUNT)
+    result = analyse(design)
+    w = result.weights
+    cg = f"{w.lcg},{w.tcg},{w.vcg}"
+    args = ["report", "--offsets", str(csv_path), "--mass", str(w.mass), "--cg", cg, "--json"]
+    assert main(args) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["draft_m"] == pytest.approx(result.hydrostatics.draft_mid, abs=1e-6)
+    assert data["GM_m"] == pytest.approx(result.hydrostatics.gm, abs=1e-5)
+    assert main(args[:-1] + ["--water", "sea", "--heel-step", "5", "--json"]) == 0
+    sea = json.loads(capsys.readouterr().out)
+    assert sea["draft_m"] < data["draft_m"]
+    assert [p["heel_deg"] for p in sea["gz"]][:3] == [0.0, 5.0, 10.0]
+
+
+@pytest.mark.parametrize(
+    "args,message",
+    [
+        (["report", "nope.json"], "no such file"),
+        (["report"], "give a design file"),
+        (["report", "--offsets", "x.csv"], "needs --mass"),
+        (["report", PUNT, "--heel-step", "0"], "heel step"),
+        (["report", PUNT, "--heel-max", "500"], "largest heel"),
+        (["offsets", PUNT, "-o", "/no/such/folder/x.csv"], "does not exist"),
+    ],
+)
+def test_bad_input_exits_2_with_one_line(capsys, args, message):
+    assert main(args) == 2
+    err = capsys.readouterr().err.strip()
+    assert message in err and "\n" not in err
+
+
+def test_bad_offsets_options(tmp_path, capsys):
+    csv_path = tmp_path / "hull.csv"
+    assert main(["offsets", PUNT, "-o", str(csv_path)]) == 0
+    for extra, message in (
+        (["--mass", "-3", "--cg", "1,0,0.2"], "--mass must be a positive"),
+        (["--mass", "100", "--cg", "1,0"], "--cg must be three numbers"),
+        (["--mass", "100", "--cg", "1,0,0.2", "--water", "mud"], "unknown water"),
+    ):
+        capsys.readouterr()
+        assert main(["report", "--offsets", str(csv_path), *extra]) == 2
+        assert message in capsys.readouterr().err
+
+
+def test_nothing_written_on_bad_input(tmp_path, capsys):
+    bad = tmp_path / "bad.json"
+    bad.write_text("{")
+    out = tmp_path / "out.csv"
+    assert main(["offsets", str(bad), "-o", str(out)]) == 2
+    assert not out.exists()
