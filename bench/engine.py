@@ -1,0 +1,78 @@
+"""Engine speed: prints ``name: value`` lines (milliseconds, medians of many runs).
+
+    python bench/engine.py            # the figures, with the app's allocator setting
+    python bench/engine.py --default  # the same with glibc's default allocator settings
+
+Hull: a 41-station Wigley form (33 points per half section, wall-sided above the design
+waterline), L 4.0 m, B 0.5 m, T 0.2 m, D 0.4 m, loaded to its design draft, G 0.15 m
+above K.  ``full_analysis_ms`` = section table + free-trim upright equilibrium and
+hydrostatics + GZ curve 0-90 degrees at 1 degree with free trim at every angle.
+"""
+
+from __future__ import annotations
+
+import statistics
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+
+import numpy as np  # noqa: E402
+
+from hydro.analytic import wigley  # noqa: E402
+from hydro.loads import WeightSummary  # noqa: E402
+from hydro.runtime import keep_freed_memory  # noqa: E402
+from hydro.sections import build_section_table  # noqa: E402
+from hydro.stability import righting_curve, upright  # noqa: E402
+
+L, B, T, D = 4.0, 0.5, 0.2, 0.4
+RHO = 1000.0
+HEEL = np.arange(0.0, 91.0, 1.0)
+
+
+def median_ms(fn, repeat: int = 60, warmup: int = 5) -> float:
+    for _ in range(warmup):
+        fn()
+    times = []
+    for _ in range(repeat):
+        t0 = time.perf_counter()
+        fn()
+        times.append(time.perf_counter() - t0)
+    return 1000.0 * statistics.median(times)
+
+
+def main() -> None:
+    default = "--default" in sys.argv
+    if not default:
+        keep_freed_memory()
+    stations = wigley(L, B, T, D, stations=41, points=33)
+    weights = WeightSummary((), RHO * 4 / 9 * L * B * T, L / 2, 0.0, 0.15, 0.15)
+    table = build_section_table(stations)
+    base = upright(table, weights, RHO)
+
+    def full(free_trim: bool = True) -> None:
+        t = build_section_table(stations)
+        b = upright(t, weights, RHO, free_trim)
+        righting_curve(t, weights, RHO, b, HEEL, free_trim)
+
+    curve = righting_curve(table, weights, RHO, base, HEEL)
+    assert curve.converged.all()
+    prefix = "default_allocator_" if default else ""
+    print(f"{prefix}full_analysis_ms: {median_ms(full):.2f}")
+    print(f"{prefix}full_analysis_fixed_trim_ms: {median_ms(lambda: full(False)):.2f}")
+    print(f"{prefix}upright_ms: {median_ms(lambda: upright(table, weights, RHO)):.3f}")
+    print(f"{prefix}curve_ms: {median_ms(lambda: righting_curve(table, weights, RHO, base, HEEL)):.2f}")
+    print(f"{prefix}table_build_ms: {median_ms(lambda: build_section_table(stations)):.3f}")
+    if not default:
+        print(f"stations: {stations.x.size}")
+        print(f"points_per_half_section: {stations.half_sections[0].shape[0]}")
+        print(f"heel_angles: {HEEL.size}")
+        print(f"gz_at_30_deg_m: {curve.gz[30]:.6f}")
+        out = subprocess.run([sys.executable, __file__, "--default"], capture_output=True, text=True)
+        print(out.stdout, end="")
+
+
+if __name__ == "__main__":
+    main()
