@@ -17,6 +17,7 @@ import numpy as np
 
 from hydro import (
     AnalysisSettings,
+    HullSketch,
     HullwrightError,
     Loads,
     MassItem,
@@ -27,6 +28,8 @@ from hydro import (
     report_dict,
     write_offsets,
 )
+from hydro import checks
+from hydro.io import read_incline_readings
 from hydro.loads import water_density
 from hydro.runtime import keep_freed_memory
 from hydro.stability import Analysis
@@ -63,6 +66,23 @@ def _parser() -> argparse.ArgumentParser:
     pl.add_argument("--paper", default="A3", help="A4, A3, Letter or Tabloid (landscape)")
     pl.add_argument("--dpi", type=int, default=300, help="PNG resolution (72 to 600)")
     pl.add_argument("--units", default="metric", choices=["metric", "imperial"])
+    ck = sub.add_parser("check", help="the builder's checks: crew shift, boarding, trim, beam, sensitivity, swamping")
+    ck.add_argument("design")
+    ck.add_argument("--crew", help="crew to shift, by number from 1 (default: all), e.g. 1,2")
+    group = ck.add_mutually_exclusive_group()
+    group.add_argument("--distance", type=float, help="shift each by this many metres (default: to the side at seat height)")
+    group.add_argument("--gunwale", action="store_true", help="shift them onto the gunwale")
+    ck.add_argument("--boarding-mass", type=float, default=75.0, help="person climbing aboard, kg (default 75)")
+    ck.add_argument("--target-gm", type=float, default=None, help="target GM for the beam aid, m (default 0.15)")
+    ck.add_argument("--json", action="store_true")
+    inc = sub.add_parser("incline", help="measured GM and KG from an inclining test of the built boat")
+    inc.add_argument("design")
+    inc.add_argument("readings", help="CSV: mass_kg,distance_m,heel_deg (or pendulum_length_m,deflection_m)")
+    how = inc.add_mutually_exclusive_group(required=True)
+    how.add_argument("--mass", type=float, help="weighed mass of the boat as tested, kg")
+    how.add_argument("--freeboards", help="measured freeboards AFT,FORE in metres")
+    inc.add_argument("--no-correction", action="store_true", help="skip the wall-sided correction")
+    inc.add_argument("--json", action="store_true")
     op = sub.add_parser("open", help="open the desktop app")
     op.add_argument("design", nargs="?")
     return p
@@ -73,6 +93,7 @@ def _settings(args: argparse.Namespace, base: AnalysisSettings) -> AnalysisSetti
         args.heel_step if args.heel_step is not None else base.heel_step_deg,
         args.heel_max if args.heel_max is not None else base.heel_max_deg,
         base.free_trim,
+        base.open_boat,
     )
 
 
@@ -170,6 +191,102 @@ def format_report(a: Analysis, name: str) -> str:
     return "\n".join(lines)
 
 
+def _heel_dict(c: "checks.HeelCheck") -> dict:
+    return {
+        "title": c.title, "verdict": c.verdict, "message": c.message, "moved_mass_kg": c.moved_mass,
+        "heeling_arm_at_0_m": c.arm0, "static_heel_deg": c.static_heel_deg,
+        "small_angle_heel_deg": c.small_angle_heel_deg, "low_side_freeboard_m": c.low_freeboard,
+    }
+
+
+def _check(args: argparse.Namespace) -> None:
+    design = load_design(args.design)
+    members = None
+    if args.crew:
+        try:
+            members = [int(v) - 1 for v in args.crew.split(",")]
+        except ValueError:
+            raise BadInput("--crew takes crew numbers from 1, e.g. 1,2") from None
+    analysis = analyse(design)
+    if analysis.hydrostatics is None:
+        raise BadInput(analysis.message)
+    shift = checks.crew_shift(design, members, args.distance, args.gunwale, analysis)
+    board = checks.boarding(design, args.boarding_mass)
+    trims = [checks.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
+    beam = (
+        checks.beam_for_gm(design, args.target_gm if args.target_gm is not None else checks.TARGET_GM_M)
+        if isinstance(design.hull, HullSketch)
+        else None
+    )
+    rows = checks.sensitivity(design)
+    swamp = checks.swamping(design, analysis)
+    if args.json:
+        out = {
+            "crew_shift": _heel_dict(shift),
+            "boarding": _heel_dict(board),
+            "level_trim": [
+                {"who": t.what, "x_now_m": t.x_before, "x_level_m": t.x_after, "trim_now_deg": t.trim_before_deg,
+                 "trim_after_deg": t.trim_after_deg, "freeboard_aft_m": t.freeboard_aft,
+                 "freeboard_fore_m": t.freeboard_fore, "message": t.message}
+                for t in trims
+            ],
+            "beam_for_gm": None if beam is None else {
+                "target_gm_m": beam.target_gm, "factor": beam.factor, "beam_now_m": beam.beam_before,
+                "beam_needed_m": beam.beam_after, "gm_now_m": beam.gm_before, "gm_after_m": beam.gm_after,
+                "message": beam.message,
+            },
+            "sensitivity": [
+                {"case": r.case, "displacement_kg": r.displacement, "GM_m": r.gm, "min_freeboard_m": r.min_freeboard,
+                 "gunwale_immersion_deg": r.gunwale_immersion_deg, "status": r.status}
+                for r in rows
+            ],
+            "swamping": {
+                "reserve_buoyancy_kg": swamp.reserve_mass, "reserve_fraction": swamp.reserve_fraction,
+                "swamped_net_buoyancy_kg": swamp.swamped_net_buoyancy, "floats_swamped": swamp.floats_swamped,
+                "message": swamp.message,
+            },
+        }
+        print(json.dumps(out, indent=2, allow_nan=False))
+        return
+    lines = [f"Builder's checks: {design.name}", "", shift.message, board.message]
+    lines += [t.message for t in trims]
+    if beam is not None:
+        lines.append(beam.message)
+    lines += ["", f"{'case':<28}{'mass kg':>9}{'GM mm':>9}{'freeboard mm':>14}{'gunwale deg':>13}"]
+    for r in rows:
+        lines.append(
+            f"{r.case:<28}{_fmt(r.displacement, 1):>9}{_fmt(r.gm and r.gm * 1000, 0):>9}"
+            f"{_fmt(r.min_freeboard and r.min_freeboard * 1000, 0):>14}{_fmt(r.gunwale_immersion_deg, 1):>13}"
+        )
+    lines += ["", swamp.message]
+    print("\n".join(lines))
+
+
+def _incline(args: argparse.Namespace) -> None:
+    design = load_design(args.design)
+    readings = read_incline_readings(args.readings)
+    freeboards = None
+    if args.freeboards:
+        try:
+            aft, fore = (float(v) for v in args.freeboards.split(","))
+        except ValueError:
+            raise BadInput("--freeboards must be two numbers AFT,FORE in metres") from None
+        freeboards = (aft, fore)
+    res = checks.inclining_test(design, readings, args.mass, freeboards, not args.no_correction)
+    if args.json:
+        print(json.dumps({
+            "GM_m": res.gm, "KM_m": res.km, "KG_m": res.kg, "displacement_kg": res.displacement,
+            "predicted_KG_m": res.predicted_kg, "wall_sided_correction": res.corrected,
+            "per_reading_GM_m": res.per_reading_gm.tolist(), "warnings": list(res.warnings), "message": res.message,
+        }, indent=2, allow_nan=False))
+        return
+    lines = [res.message, "", "  reading   tan(heel)   GM from it (mm)"]
+    for i, (t, g) in enumerate(zip(res.tan_heel, res.per_reading_gm), start=1):
+        lines.append(f"  {i:7d}   {t:9.5f}   {g * 1000:15.1f}")
+    lines += [""] + [f"Warning: {w}" for w in res.warnings]
+    print("\n".join(lines).rstrip())
+
+
 def _offsets(args: argparse.Namespace) -> None:
     out = Path(args.output)
     if not out.parent.exists():
@@ -207,6 +324,10 @@ def main(argv: Sequence[str] | None = None) -> int:
                 print(format_report(analysis, name))
         elif args.command == "offsets":
             _offsets(args)
+        elif args.command == "check":
+            _check(args)
+        elif args.command == "incline":
+            _incline(args)
         elif args.command == "plate":
             _plate(args)
         elif args.command == "open":

@@ -24,11 +24,14 @@ class AnalysisSettings:
     heel_step_deg : step between heel angles (0.1 to 15)
     heel_max_deg : last heel angle (5 to 180)
     free_trim : let the boat trim freely at every heel (else trim stays as upright)
+    open_boat : an open boat floods when the gunwale goes under, so its curve ends
+        there; a closed (decked, sealed) hull keeps its curve beyond
     """
 
     heel_step_deg: float = 1.0
     heel_max_deg: float = 90.0
     free_trim: bool = True
+    open_boat: bool = True
 
     def heel_angles(self) -> np.ndarray:
         """(A,) heel angles in degrees, 0 to heel_max_deg inclusive."""

@@ -170,9 +170,13 @@ def _bracketed_trim(
     table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
     tau_start: FloatArray, h_start: FloatArray,
 ) -> tuple[FloatArray, FloatArray, NDArray[np.bool_]]:
-    """Safeguarded free-trim solve: exact volume at every trial trim, trim bracketed."""
+    """Safeguarded free-trim solve: exact volume at every trial trim, trim bracketed.
+
+    The bracket grows from the starting trim outwards (doubling), so the root found is
+    the one nearest the start: the boat's own trim, not an equilibrium standing on end.
+    """
     length = float(table.x[-1] - table.x[0])
-    limit = 20.0 * float(np.max(frame.eta_high - frame.eta_low)) / length
+    ratio = float(np.max(frame.eta_high - frame.eta_low)) / length
     tol_m = TOLERANCE * volume * length
 
     def pitch(tau: FloatArray, h_guess: FloatArray) -> tuple[FloatArray, FloatArray, _Residual]:
@@ -180,26 +184,36 @@ def _bracketed_trim(
         r = _residual(table, frame, volume, x_g, eta_g, h, tau)
         return h, np.where(ok, r.f2, np.nan), r
 
-    lo = np.full(tau_start.size, -limit)
-    hi = np.full(tau_start.size, limit)
-    _, f_lo, _ = pitch(lo, h_start)
-    _, f_hi, _ = pitch(hi, h_start)
-    possible = np.isfinite(f_lo) & np.isfinite(f_hi) & (np.sign(f_lo) != np.sign(f_hi))
-    tau = np.clip(tau_start, lo * 0.999, hi * 0.999)
-    h = h_start
+    h, f_start, _ = pitch(tau_start, h_start)
+    lo, hi = tau_start.copy(), tau_start.copy()
+    f_lo = f_start.copy()
+    found = np.abs(f_start) <= tol_m
+    step = 0.02 * ratio
+    while step <= 20.0 * ratio and not found.all():
+        for sign in (-1.0, 1.0):
+            trial = tau_start + sign * step
+            _, f, _ = pitch(trial, h)
+            change = ~found & np.isfinite(f) & np.isfinite(f_start) & (np.sign(f) != np.sign(f_start))
+            lo = np.where(change, np.minimum(trial, tau_start), lo)
+            hi = np.where(change, np.maximum(trial, tau_start), hi)
+            f_lo = np.where(change, np.where(trial < tau_start, f, f_start), f_lo)
+            found |= change
+        step *= 2.0
+    tau = np.where(found, 0.5 * (lo + hi), tau_start)
     done = np.zeros(tau.size, dtype=bool)
     for _ in range(MAX_ITERATIONS):
         h, f, r = pitch(tau, h)
-        done = possible & (np.abs(f) <= tol_m)
-        if (done | ~possible).all():
+        done = found & (np.abs(f) <= tol_m)
+        if (done | ~found).all():
             break
-        below = np.sign(f) == np.sign(f_lo)
-        lo = np.where(below, tau, lo)
-        hi = np.where(below, hi, tau)
+        same = np.sign(f) == np.sign(f_lo)
+        lo = np.where(same, tau, lo)
+        f_lo = np.where(same, f, f_lo)
+        hi = np.where(same, hi, tau)
         slope = r.j22 - r.j21 * r.j12 / np.where(r.j11 > 0, r.j11, 1.0)
-        step = tau - f / np.where(slope != 0, slope, 1.0)
-        inside = (step > np.minimum(lo, hi)) & (step < np.maximum(lo, hi)) & (slope != 0)
-        tau = np.where(done, tau, np.where(inside, step, 0.5 * (lo + hi)))
+        step_to = tau - f / np.where(slope != 0, slope, 1.0)
+        inside = (step_to > lo) & (step_to < hi) & (slope != 0)
+        tau = np.where(done | ~found, tau, np.where(inside, step_to, 0.5 * (lo + hi)))
     return h, tau, done
 
 
@@ -228,11 +242,14 @@ def solve_equilibrium(
     tau = np.array(tau0, dtype=float)
     if free_trim:
         h, tau, ok = _joint_newton(table, frame, volume, x_g, eta_g, h, tau)
+        # a far jump in trim means Newton found another equilibrium (standing on end)
+        ratio = float(np.max(frame.eta_high - frame.eta_low)) / float(table.x[-1] - table.x[0])
+        ok &= np.abs(tau - tau0) <= 2.0 * ratio
         if not ok.all():
             idx = np.flatnonzero(~ok)
             sub = frame.take(idx)
             h[idx], tau[idx], ok[idx] = _bracketed_trim(
-                table, sub, volume, x_g, eta_g[idx], tau[idx], np.nan_to_num(h[idx])
+                table, sub, volume, x_g, eta_g[idx], np.asarray(tau0, dtype=float)[idx], np.asarray(h0, dtype=float)[idx]
             )
     else:
         h, ok = waterline_for_trim(table, frame, volume, tau, h)

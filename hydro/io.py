@@ -118,6 +118,7 @@ def design_to_dict(d: Design) -> dict[str, Any]:
             "heel_step_deg": d.settings.heel_step_deg,
             "heel_max_deg": d.settings.heel_max_deg,
             "free_trim": d.settings.free_trim,
+            "open_boat": d.settings.open_boat,
         },
     }
 
@@ -302,6 +303,7 @@ def design_from_dict(data: Any) -> Design:
             settings_r.num("heel_step_deg", 1.0),
             settings_r.num("heel_max_deg", 90.0),
             settings_r.flag("free_trim", True),
+            settings_r.flag("open_boat", True),
         )
     try:
         design = Design(
@@ -490,4 +492,51 @@ def report_dict(a: Analysis, name: str = "") -> dict[str, Any]:
                 ],
             }
         )
+    return out
+
+
+# ----------------------------------------------------------------------------- inclining
+
+
+def read_incline_readings(path: str | os.PathLike[str]) -> list[Any]:
+    """Inclining-test readings from CSV.
+
+    Header row with ``mass_kg,distance_m`` and either ``heel_deg`` or
+    ``pendulum_length_m,deflection_m``; distance and heel or deflection are signed,
+    positive to starboard.  Lines starting with '#' are comments.
+    """
+    from hydro.checks import InclineReading
+
+    p = Path(path)
+    try:
+        text = p.read_text(encoding="utf-8")
+    except FileNotFoundError:
+        raise DesignFileError(f"{p}: no such file") from None
+    except (UnicodeDecodeError, IsADirectoryError):
+        raise DesignFileError(f"{p.name}: not a text file") from None
+    rows = [r for r in csv.reader(io.StringIO(text)) if r and not r[0].lstrip().startswith("#")]
+    if not rows:
+        raise DesignFileError(f"{p.name}: no readings")
+    header = [h.strip().lower() for h in rows[0]]
+    need = {"mass_kg", "distance_m"}
+    if not need <= set(header):
+        raise DesignFileError(f"{p.name}: the first row must name the columns mass_kg, distance_m and heel_deg (or pendulum_length_m, deflection_m)")
+    col = {name: header.index(name) for name in header}
+    out = []
+    for n, row in enumerate(rows[1:], start=2):
+        def get(name: str) -> float | None:
+            if name not in col or col[name] >= len(row) or not row[col[name]].strip():
+                return None
+            try:
+                v = float(row[col[name]])
+            except ValueError:
+                raise DesignFileError(f"{p.name} row {n}: '{name}' is not a number") from None
+            if not math.isfinite(v):
+                raise DesignFileError(f"{p.name} row {n}: '{name}' is not a finite number")
+            return v
+
+        mass, dist = get("mass_kg"), get("distance_m")
+        if mass is None or dist is None:
+            raise DesignFileError(f"{p.name} row {n}: needs mass_kg and distance_m")
+        out.append(InclineReading(mass, dist, get("heel_deg"), get("pendulum_length_m"), get("deflection_m")))
     return out

@@ -30,6 +30,7 @@ __all__ = [
     "analyse_table",
     "curve_area",
     "flooding_mass",
+    "hydrostatics_at",
 ]
 
 FloatArray = NDArray[np.float64]
@@ -173,7 +174,7 @@ def upright(
     )
     if not (eq.waterplane[0] > 0 and eq.converged[0]):  # no floating position
         return None
-    return _hydrostatics(table, weights, rho, eq)
+    return hydrostatics_at(table, weights, rho, eq)
 
 
 def _waterline_length(table: SectionTable, h: float, tau: float) -> float:
@@ -189,9 +190,10 @@ def _waterline_length(table: SectionTable, h: float, tau: float) -> float:
     return float(end - start)
 
 
-def _hydrostatics(
+def hydrostatics_at(
     table: SectionTable, weights: WeightSummary, rho: float, eq: Equilibrium
 ) -> Hydrostatics:
+    """Hydrostatics of the first waterline in ``eq`` (upright) for the given weights."""
     x, w = table.x, table.weights
     c = eq.cut
     h, tau = float(eq.h[0]), float(eq.tau[0])

@@ -87,3 +87,39 @@ def test_nothing_written_on_bad_input(tmp_path, capsys):
     out = tmp_path / "out.csv"
     assert main(["offsets", str(bad), "-o", str(out)]) == 2
     assert not out.exists()
+
+
+def test_check_command_json(capsys):
+    assert main(["check", str(SAMPLES / "drift-lab-raft.json"), "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["crew_shift"]["verdict"] == "holds"
+    assert data["crew_shift"]["static_heel_deg"] > 0
+    assert len(data["level_trim"]) == 2 and data["level_trim"][0]["trim_after_deg"] == pytest.approx(0, abs=0.01)
+    assert data["beam_for_gm"]["gm_after_m"] == pytest.approx(0.15, abs=1e-3)
+    assert [r["case"] for r in data["sensitivity"]][0] == "as designed"
+    assert data["swamping"]["floats_swamped"] is None  # sealed pontoons: a closed hull
+
+
+def test_check_command_text_and_bad_crew(capsys):
+    assert main(["check", PUNT, "--crew", "1", "--distance", "0.1"]) == 0
+    out = capsys.readouterr().out
+    assert "Crew shift (bow paddler (student) 0.10 m to the side)" in out
+    assert main(["check", PUNT, "--crew", "x"]) == 2
+    assert "crew numbers" in capsys.readouterr().err
+    assert main(["check", PUNT, "--crew", "7"]) == 2
+    assert "choose crew" in capsys.readouterr().err
+
+
+def test_incline_command(tmp_path, capsys):
+    readings = tmp_path / "readings.csv"
+    readings.write_text("mass_kg,distance_m,heel_deg\n10,0.4,1.2\n10,-0.4,-1.25\n10,0.5,1.5\n10,-0.5,-1.52\n")
+    assert main(["incline", PUNT, str(readings), "--mass", "60", "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["displacement_kg"] == pytest.approx(60.0)
+    assert data["KG_m"] == pytest.approx(data["KM_m"] - data["GM_m"])
+    readings.write_text("mass_kg,distance_m,heel_deg\n10,0.4,abc\n")
+    assert main(["incline", PUNT, str(readings), "--mass", "60"]) == 2
+    assert "'heel_deg' is not a number" in capsys.readouterr().err
+    readings.write_text("weight,where\n1,2\n")
+    assert main(["incline", PUNT, str(readings), "--mass", "60"]) == 2
+    assert "must name the columns" in capsys.readouterr().err
