@@ -1,0 +1,415 @@
+"""The open design: one model that every view observes and every edit goes through.
+
+:class:`HullDocument` owns the committed :class:`hydro.Design`, the preview shown during
+a drag, the file path, the undo stack and the latest analysis.
+
+Edits
+    ``preview`` (during a drag: no undo entry, a rough analysis), then ``finish_preview``
+    (one undo step) or ``cancel_preview``; ``edit`` for everything else (numeric entry,
+    nudges, loads, add/delete).  Each is checked first; an impossible design is refused
+    with a message on ``notice`` and nothing changes.
+
+Recomputation
+    Every change restarts one single-shot zero-delay timer; when the event loop comes
+    round, the newest design is analysed once (older requests are simply dropped).
+    While dragging, the analysis is rough: :data:`ROUGH_STATION_COUNT` stations and a
+    heel step of at least :data:`ROUGH_HEEL_STEP_DEG` degrees; on release the full
+    analysis follows.  Full analyses are cached, so undo and redo show at once.
+"""
+
+from __future__ import annotations
+
+from collections import OrderedDict
+from dataclasses import replace
+from pathlib import Path
+
+from PySide6.QtCore import QObject, QTimer, Signal
+from PySide6.QtGui import QUndoCommand, QUndoStack
+
+from hydro import (
+    MATERIAL_PRESETS,
+    Analysis,
+    CrewMember,
+    Curve,
+    Design,
+    HullSketch,
+    Loads,
+    Material,
+    SectionShape,
+    HullwrightError,
+    analyse,
+    analyse_stations,
+    generate_stations,
+    load_design,
+    save_design,
+)
+from hydro.curves import sample_polyline
+from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
+from hydro.loads import validate_loads
+
+from app.editing import EditRefused, PointRef, delete_point
+
+__all__ = [
+    "ROUGH_STATION_COUNT",
+    "ROUGH_HEEL_STEP_DEG",
+    "HullDocument",
+    "SnapshotCommand",
+    "check_design",
+    "rough_analysis",
+    "starter_design",
+]
+
+ROUGH_STATION_COUNT = 21
+ROUGH_HEEL_STEP_DEG = 3.0
+_CACHE_SIZE = 16
+
+
+def check_design(design: Design) -> None:
+    """Raise :class:`hydro.HullwrightError` if the design cannot be analysed."""
+    if isinstance(design.hull, HullSketch):
+        stations = generate_stations(design.hull, count=3)
+    else:
+        stations = design.hull
+    validate_loads(design.loads, stations)
+    design.water_density  # noqa: B018 - raises for a bad water entry
+    design.settings.heel_angles()
+
+
+def starter_design() -> Design:
+    """What File > New opens: a plain 2.4 m flat-bottomed punt for one adult."""
+    board = "double-wall corrugated board"
+    hull = HullSketch(
+        plan=Curve(((0.0, 0.34), (0.5, 0.42), (1.2, 0.44), (1.9, 0.42), (2.4, 0.32))),
+        keel=Curve(((0.0, 0.10), (0.5, 0.01), (1.2, 0.0), (1.9, 0.01), (2.4, 0.12))),
+        sheer=Curve(((0.0, 0.42), (1.2, 0.38), (2.4, 0.43))),
+        sections=(SectionShape(1.2, ((0.0, 0.0), (0.85, 0.0), (1.0, 1.0))),),
+    )
+    loads = Loads(
+        crew=(CrewMember("paddler", x=1.2),),
+        materials=(Material(board, MATERIAL_PRESETS[board][0], layers=2.0),),
+        bottom_thickness=0.014,
+    )
+    return Design(name="New hull", hull=hull, loads=loads)
+
+
+def _presampled(sketch: HullSketch) -> HullSketch:
+    """The sketch with smooth section shapes replaced by their sampled polylines.
+
+    The engine samples a smooth shape again at every station; sampling it once gives
+    the same stations for a single shape and nearly the same where shapes blend.
+    """
+    sections = tuple(
+        replace(
+            s,
+            points=tuple(map(tuple, sample_polyline(s.points, True, SMOOTH_SAMPLES_PER_SPAN))),
+            smooth=False,
+        )
+        if s.smooth
+        else s
+        for s in sketch.sections
+    )
+    return replace(sketch, sections=sections)
+
+
+def rough_analysis(design: Design) -> Analysis:
+    """A quick analysis for live feedback while dragging (fewer stations and angles)."""
+    settings = replace(
+        design.settings, heel_step_deg=max(design.settings.heel_step_deg, ROUGH_HEEL_STEP_DEG)
+    )
+    if isinstance(design.hull, HullSketch):
+        count = min(ROUGH_STATION_COUNT, design.hull.station_count)
+        stations = generate_stations(_presampled(design.hull), count=count)
+    else:
+        stations = design.hull
+    return analyse_stations(stations, design.loads, design.water_density, settings)
+
+
+class SnapshotCommand(QUndoCommand):
+    """One undoable edit: the whole design before and after.
+
+    Commands with the same ``merge_key`` (keyboard nudges of one point) merge into one.
+    """
+
+    MERGE_ID = 7301
+
+    def __init__(
+        self,
+        document: HullDocument,
+        before: Design,
+        after: Design,
+        text: str,
+        merge_key: object | None = None,
+    ):
+        super().__init__(text)
+        self._document = document
+        self.before = before
+        self.after = after
+        self.merge_key = merge_key
+
+    def id(self) -> int:
+        return self.MERGE_ID if self.merge_key is not None else -1
+
+    def mergeWith(self, other: QUndoCommand) -> bool:
+        if not isinstance(other, SnapshotCommand) or other.merge_key != self.merge_key:
+            return False
+        self.after = other.after
+        return True
+
+    def redo(self) -> None:
+        self._document._show_committed(self.after)
+
+    def undo(self) -> None:
+        self._document._show_committed(self.before)
+
+
+class HullDocument(QObject):
+    """The open design, its file, its undo history and its latest analysis.
+
+    Signals
+    -------
+    designChanging : the preview changed during a drag (no undo entry yet)
+    designChanged : the committed design changed (edit, undo, redo, new, open)
+    analysisReady(Analysis) : a new analysis of the current design
+    analysisFailed(str) : the current design could not be analysed (message)
+    notice(str) : a short message for the status bar (an edit held or refused)
+    selectionChanged : the selected control point changed
+    fileChanged : the file path or the saved/unsaved state changed
+    """
+
+    designChanging = Signal()
+    designChanged = Signal()
+    analysisReady = Signal(object)
+    analysisFailed = Signal(str)
+    notice = Signal(str)
+    selectionChanged = Signal()
+    fileChanged = Signal()
+
+    def __init__(self, design: Design, path: Path | None = None, parent: QObject | None = None):
+        super().__init__(parent)
+        self._committed = design
+        self._preview: Design | None = None
+        self._path: Path | None = path
+        self._selection: PointRef | None = None
+        self._analysis: Analysis | None = None
+        self._analysis_rough = False
+        self._analysis_error = ""
+        self._rough_requested = False
+        self._cache: OrderedDict[Design, Analysis] = OrderedDict()
+        self.undo_stack = QUndoStack(self)
+        self.undo_stack.cleanChanged.connect(self._on_clean_changed)
+        self._timer = QTimer(self)
+        self._timer.setSingleShot(True)
+        self._timer.setInterval(0)
+        self._timer.timeout.connect(self._run_analysis)
+        self._schedule(rough=False)
+
+    def _on_clean_changed(self, _clean: bool) -> None:
+        self.fileChanged.emit()
+
+    # ------------------------------------------------------------------ state
+
+    @property
+    def design(self) -> Design:
+        """The design on screen: the preview during a drag, else the committed one."""
+        return self._preview if self._preview is not None else self._committed
+
+    @property
+    def committed(self) -> Design:
+        return self._committed
+
+    @property
+    def is_previewing(self) -> bool:
+        return self._preview is not None
+
+    @property
+    def path(self) -> Path | None:
+        return self._path
+
+    @property
+    def is_modified(self) -> bool:
+        return not self.undo_stack.isClean()
+
+    @property
+    def analysis(self) -> Analysis | None:
+        """The newest analysis (None before the first one, or if it failed)."""
+        return self._analysis
+
+    @property
+    def analysis_is_rough(self) -> bool:
+        """True while the shown analysis is the quick one made during a drag."""
+        return self._analysis_rough
+
+    @property
+    def analysis_error(self) -> str:
+        return self._analysis_error
+
+    @property
+    def analysis_pending(self) -> bool:
+        return self._timer.isActive()
+
+    @property
+    def selection(self) -> PointRef | None:
+        return self._selection
+
+    def select(self, ref: PointRef | None) -> None:
+        if ref != self._selection:
+            self._selection = ref
+            self.selectionChanged.emit()
+
+    # ------------------------------------------------------------------ edits
+
+    def _refuse(self, design: Design) -> str:
+        try:
+            check_design(design)
+        except HullwrightError as e:
+            return str(e)
+        return ""
+
+    def preview(self, design: Design, note: str = "") -> bool:
+        """Show ``design`` while a drag is in progress; False (and a notice) if impossible."""
+        problem = self._refuse(design)
+        if problem:
+            self.notice.emit(f"Held: {problem}")
+            return False
+        self.notice.emit(f"Held: {note}" if note else "")
+        self._preview = design
+        self.designChanging.emit()
+        self._schedule(rough=True)
+        return True
+
+    def finish_preview(self, text: str) -> None:
+        """End a drag: the preview becomes one undo step."""
+        if self._preview is None:
+            return
+        after, self._preview = self._preview, None
+        if after == self._committed:
+            self.designChanged.emit()
+            self._schedule(rough=False)
+            return
+        self.undo_stack.push(SnapshotCommand(self, self._committed, after, text))
+
+    def cancel_preview(self) -> None:
+        """Abandon a drag: back to the committed design."""
+        if self._preview is None:
+            return
+        self._preview = None
+        self.notice.emit("Drag cancelled")
+        self.designChanged.emit()
+        self._schedule(rough=False)
+
+    def edit(self, design: Design, text: str, merge_key: object | None = None) -> bool:
+        """Commit ``design`` as one undo step; False (and a notice) if impossible."""
+        problem = self._refuse(design)
+        if problem:
+            self.notice.emit(f"Not changed: {problem}")
+            return False
+        if design != self._committed:
+            self.undo_stack.push(SnapshotCommand(self, self._committed, design, text, merge_key))
+        return True
+
+    def remove_selected_point(self) -> bool:
+        """Remove the selected control point (one undo step); False if refused."""
+        ref = self._selection
+        hull = self._committed.hull
+        if ref is None or not isinstance(hull, HullSketch) or self._preview is not None:
+            return False
+        try:
+            sketch = delete_point(hull, ref)
+        except EditRefused as e:
+            self.notice.emit(f"Not removed: {e}")
+            return False
+        if not self.edit(replace(self._committed, hull=sketch), f"Remove {ref.label()}"):
+            return False
+        self.select(None)
+        return True
+
+    def _show_committed(self, design: Design) -> None:
+        self._committed = design
+        self._preview = None
+        self._drop_stale_selection()
+        self.designChanged.emit()
+        self._schedule(rough=False)
+
+    def _drop_stale_selection(self) -> None:
+        ref = self._selection
+        if ref is None:
+            return
+        hull = self._committed.hull
+        if not isinstance(hull, HullSketch):
+            self.select(None)
+            return
+        if ref.curve == "section":
+            ok = ref.shape < len(hull.sections) and ref.index < len(hull.sections[ref.shape].points)
+        else:
+            ok = ref.index < len(getattr(hull, ref.curve).points)
+        if not ok:
+            self.select(None)
+
+    # ------------------------------------------------------------------ files
+
+    def replace_design(self, design: Design, path: Path | None) -> None:
+        """Start over with ``design`` (new, open): the undo history is cleared."""
+        self._preview = None
+        self._committed = design
+        self._path = path
+        self.undo_stack.clear()
+        self.undo_stack.setClean()
+        self.select(None)
+        self.designChanged.emit()
+        self.fileChanged.emit()
+        self._schedule(rough=False)
+
+    def open(self, path: str | Path) -> None:
+        """Open a design file; raises :class:`hydro.DesignFileError` and changes nothing."""
+        design = load_design(path)
+        self.replace_design(design, Path(path))
+
+    def save(self, path: str | Path | None = None) -> Path:
+        """Save (atomically) to ``path`` or the current file; returns the path used."""
+        target = Path(path) if path is not None else self._path
+        if target is None:
+            raise ValueError("no file name given")
+        save_design(self._committed, target)
+        self._path = target
+        self.undo_stack.setClean()
+        self.fileChanged.emit()
+        return target
+
+    def mark_unsaved(self) -> None:
+        """Show the design as not saved (a recovered design)."""
+        self.undo_stack.resetClean()
+        self.fileChanged.emit()
+
+    # ------------------------------------------------------------------ analysis
+
+    def _schedule(self, rough: bool) -> None:
+        self._rough_requested = rough
+        self._timer.start()
+
+    def recompute_now(self) -> None:
+        """Run a pending analysis at once (tests, benchmarks)."""
+        if self._timer.isActive():
+            self._timer.stop()
+            self._run_analysis()
+
+    def _run_analysis(self) -> None:
+        design = self.design
+        rough = self._rough_requested and self._preview is not None
+        try:
+            if rough:
+                result = rough_analysis(design)
+            else:
+                result = self._cache.get(design) or analyse(design)
+                self._cache[design] = result
+                self._cache.move_to_end(design)
+                while len(self._cache) > _CACHE_SIZE:
+                    self._cache.popitem(last=False)
+        except HullwrightError as e:
+            self._analysis = None
+            self._analysis_error = str(e)
+            self.analysisFailed.emit(self._analysis_error)
+            return
+        self._analysis = result
+        self._analysis_rough = rough
+        self._analysis_error = ""
+        self.analysisReady.emit(result)
