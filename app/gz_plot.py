@@ -1,0 +1,133 @@
+"""The righting-arm curve: GZ against heel, with the wall-sided estimate beside it.
+
+Past the heel at which the gunwale meets the water an open boat fills, so that part of
+the curve is drawn faint and dashed over a shaded band, with the angle marked.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pyqtgraph as pg
+from PySide6.QtCore import Qt
+
+from hydro import StabilityCurve
+
+from app import style
+from app.units import UnitSystem
+
+__all__ = ["GzPlot", "nice_ceiling", "LEGEND_HTML"]
+
+#: A key to the curves, shown under the plot (a legend inside it would hide the data).
+LEGEND_HTML = (
+    f"<span style='color:{style.GZ_LINE}'>━━</span> righting arm GZ &nbsp; "
+    f"<span style='color:{style.INK_FAINT}'>┅┅</span> past the gunwale (open boat fills) &nbsp; "
+    f"<span style='color:{style.WALL_SIDED}'>╍╍</span> wall-sided estimate"
+)
+
+
+def nice_ceiling(value: float) -> float:
+    """Smallest of 1, 2, 2.5, 5 x 10^n that is >= value (value > 0).
+
+    >>> nice_ceiling(0.13)
+    0.2
+    """
+    exponent = math.floor(math.log10(value))
+    for step in (1.0, 2.0, 2.5, 5.0, 10.0):
+        top = step * 10**exponent
+        if top >= value * (1 - 1e-12):
+            return top
+    return 10.0 ** (exponent + 1)
+
+
+class GzPlot(pg.PlotWidget):
+    """GZ(heel) from the engine, split at gunwale immersion, plus the wall-sided estimate.
+
+    ``open_part`` holds the curve up to the gunwale angle and ``beyond_part`` the rest
+    (the two share the point where they meet); together they are the engine's data.
+    """
+
+    def __init__(self) -> None:
+        super().__init__(background=style.PAPER)
+        self.setMenuEnabled(False)
+        self.hideButtons()
+        self.setMouseEnabled(x=False, y=False)
+        self.showGrid(x=True, y=True, alpha=0.25)
+        self.setMinimumHeight(200)
+        for side in ("bottom", "left"):
+            axis = self.getAxis(side)
+            axis.enableAutoSIPrefix(False)
+            axis.setTextPen(style.INK)
+            axis.setPen(style.INK_FAINT)
+        self.setLabel("bottom", "heel (°)", color=style.INK)
+        self.beyond_band = pg.LinearRegionItem(
+            orientation="vertical", movable=False, brush=pg.mkBrush(style.NOT_AVAILABLE_FILL), pen=pg.mkPen(None)
+        )
+        self.beyond_band.setZValue(-10)
+        self.addItem(self.beyond_band, ignoreBounds=True)
+        self.zero = pg.InfiniteLine(pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1))
+        self.addItem(self.zero, ignoreBounds=True)
+        self.wall_sided = self.plot(
+            pen=pg.mkPen(style.WALL_SIDED, width=1.5, style=Qt.PenStyle.DashLine),
+            connect="finite",
+        )
+        self.beyond_part = self.plot(
+            pen=pg.mkPen(style.INK_FAINT, width=2, style=Qt.PenStyle.DotLine),
+        )
+        self.open_part = self.plot(pen=pg.mkPen(style.GZ_LINE, width=2.5))
+        self.gunwale_line = pg.InfiniteLine(
+            angle=90,
+            pen=pg.mkPen(style.WATER_LINE, width=1.5),
+            label="gunwale under {value:.1f}°",
+            labelOpts={"position": 0.12, "color": style.WATER_LINE, "anchors": [(0, 0), (0, 0)]},
+        )
+        self.addItem(self.gunwale_line, ignoreBounds=True)
+        self.peak = pg.ScatterPlotItem(size=9, symbol="d", brush=pg.mkBrush(style.GZ_LINE), pen=pg.mkPen("w"))
+        self.addItem(self.peak)
+        self._units: UnitSystem | None = None
+
+    def set_units(self, units: UnitSystem) -> None:
+        self._units = units
+        axis = self.getAxis("left")
+        axis.setScale(units.length_factor)
+        self.setLabel("left", f"GZ ({units.length})", color=style.INK)
+
+    def show_curve(self, curve: StabilityCurve | None) -> None:
+        """Draw ``curve`` (None clears the plot)."""
+        if curve is None:
+            for item in (self.open_part, self.beyond_part, self.wall_sided):
+                item.setData([], [])
+            self.peak.setData([], [])
+            self.gunwale_line.hide()
+            self.beyond_band.hide()
+            return
+        heel, gz = curve.heel_deg, curve.gz
+        last = float(heel[-1])
+        gunwale = curve.gunwale_immersion_deg
+        if gunwale is None:
+            split = heel.size
+        else:
+            split = int(np.searchsorted(heel, gunwale, side="right"))
+        self.open_part.setData(heel[:split], gz[:split], connect="finite")
+        start = max(split - 1, 0)
+        self.beyond_part.setData(heel[start:], gz[start:], connect="finite")
+        self.wall_sided.setData(heel, curve.wall_sided)
+        if gunwale is None:
+            self.gunwale_line.hide()
+            self.beyond_band.hide()
+        else:
+            self.gunwale_line.setValue(gunwale)
+            self.gunwale_line.show()
+            self.beyond_band.setRegion((gunwale, last))
+            self.beyond_band.show()
+        if math.isfinite(curve.max_gz):
+            self.peak.setData([curve.max_gz_deg], [curve.max_gz])
+        else:
+            self.peak.setData([], [])
+        finite = gz[np.isfinite(gz)]
+        top = nice_ceiling(max(float(finite.max()) if finite.size else 0.0, 0.01) * 1.15)
+        low = min(float(finite.min()) if finite.size else 0.0, 0.0)
+        # deep negative arms (far past the gunwale) may leave the plot: keep the top readable
+        bottom = -min(nice_ceiling(-low * 1.15), top) if low < 0 else -0.08 * top
+        self.setRange(xRange=(0.0, last), yRange=(bottom, top), padding=0.02)

@@ -1,0 +1,61 @@
+"""Start the desktop app: ``main(argv)`` opens the given design or the first sample."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+from typing import Sequence
+
+from PySide6.QtWidgets import QApplication
+
+import pyqtgraph as pg  # noqa: E402 - PySide6 first, so pyqtgraph binds to it
+
+from hydro import DesignFileError, load_design
+from hydro.runtime import keep_freed_memory
+
+from app.document import HullDocument, starter_design
+from app.main_window import MainWindow, icon, sample_paths
+from app.settings import open_settings
+
+__all__ = ["main", "create_window"]
+
+
+def create_window(argv: Sequence[str]) -> tuple[MainWindow, str]:
+    """The main window on the design named in ``argv`` (or the first sample).
+
+    Returns the window and an error message ("" if the file opened).
+    """
+    error = ""
+    design, path = None, None
+    if argv:
+        try:
+            design, path = load_design(argv[0]), Path(argv[0]).resolve()
+        except DesignFileError as e:
+            error = str(e)
+    if design is None:
+        samples = sample_paths()
+        design = load_design(samples[0]) if samples else starter_design()
+    window = MainWindow(HullDocument(design, path), open_settings())
+    return window, error
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Run Hullwright; returns the exit code."""
+    args = list(sys.argv[1:] if argv is None else argv)
+    app = QApplication.instance() or QApplication([sys.argv[0], *args])
+    app.setStyle("Fusion")
+    app.setApplicationName("Hullwright")
+    app.setWindowIcon(icon("hullwright"))
+    pg.setConfigOptions(antialias=True)
+    keep_freed_memory()
+    window, error = create_window(args)
+    window.show()
+    if error:
+        window.show_message("Could not open the file", f"{error}\n\nShowing a sample design instead.")
+    window.offer_recovery()
+    window.show_first_run_notice()
+    return app.exec()
+
+
+if __name__ == "__main__":
+    sys.exit(main())

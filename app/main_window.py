@@ -1,0 +1,541 @@
+"""The main window: the three editors, the stability readout, the loads, files and menus.
+
+Layout: plan view across the top, profile and section side by side below it, the
+selected point's exact coordinates underneath; the stability readout docked on the
+right and the load editor docked at the bottom.  Further panels (builder's checks)
+join the load editor as tabs through :meth:`MainWindow.add_panel`.
+
+Questions that need an answer (save before closing? recover unsaved work?) go through
+``self.ask``, which tests replace; every other message is non-blocking.
+"""
+
+from __future__ import annotations
+
+from importlib import resources
+from pathlib import Path
+from typing import Callable
+
+from PySide6.QtCore import QSettings, Qt, QTimer
+from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QIcon, QKeySequence
+from PySide6.QtWidgets import (
+    QDockWidget,
+    QFileDialog,
+    QLabel,
+    QMainWindow,
+    QMessageBox,
+    QSplitter,
+    QVBoxLayout,
+    QWidget,
+)
+
+from hydro import DesignFileError, HullwrightError, load_design, save_design
+
+from app import style
+from app.document import HullDocument, starter_design
+from app.load_editor import LoadEditor
+from app.plan_view import PlanView
+from app.plate_dialog import PlateDialog
+from app.point_entry import PointEntry
+from app.profile_view import ProfileView
+from app.results_panel import ResultsPanel
+from app.safety_dialog import SafetyDialog
+from app.section_view import SectionView
+from app.settings import add_recent_file, recent_files, recovery_path
+from app.view_options import ViewOptions
+
+__all__ = ["MainWindow", "sample_paths", "icon"]
+
+AUTOSAVE_MS = 30_000
+FILE_FILTER = "Hullwright designs (*.json);;All files (*)"
+
+Button = QMessageBox.StandardButton
+Ask = Callable[[str, str, Button, Button], Button]
+
+KEYS_HELP = """<table cellpadding='3'>
+<tr><td><b>Drag a copper handle</b></td><td>move a point; the readout follows live</td></tr>
+<tr><td><b>Esc</b> during a drag</td><td>put the point back</td></tr>
+<tr><td><b>Click</b> a handle</td><td>select it; type exact figures below the drawings</td></tr>
+<tr><td><b>Arrow keys</b></td><td>nudge the selected point (1 mm or 1/16 in)</td></tr>
+<tr><td><b>Shift + arrows</b></td><td>nudge ten times as far</td></tr>
+<tr><td><b>Double-click</b> a line</td><td>add a point there</td></tr>
+<tr><td><b>Delete</b></td><td>remove the selected point</td></tr>
+<tr><td><b>Wheel / right-drag</b></td><td>zoom; left-drag on paper pans</td></tr>
+<tr><td><b>Ctrl+0</b></td><td>fit every drawing to its view</td></tr>
+</table>"""
+
+
+def icon(name: str) -> QIcon:
+    """One of the project's own SVG icons."""
+    return QIcon(str(resources.files("icons") / f"{name}.svg"))
+
+
+def sample_paths() -> list[Path]:
+    """The demo designs shipped with the app, by file name."""
+    folder = resources.files("sample_hulls")
+    return sorted(Path(str(p)) for p in folder.iterdir() if p.name.endswith(".json"))
+
+
+def _ask_with_dialog(parent: QWidget) -> Ask:
+    def ask(title: str, text: str, buttons: Button, default: Button) -> Button:
+        return QMessageBox.question(parent, title, text, buttons, default)
+
+    return ask
+
+
+class MainWindow(QMainWindow):
+    """Hullwright's window around one :class:`HullDocument`.
+
+    Attributes
+    ----------
+    document, options : the model and the display choices every part shares
+    plan_view, profile_view, section_view, point_entry, results, loads : the parts
+    ask : callable(title, text, buttons, default) -> button; the one blocking question
+    message_box : the non-blocking message box, once a message has been shown
+    """
+
+    def __init__(self, document: HullDocument, settings: QSettings):
+        super().__init__()
+        self.document = document
+        self.settings = settings
+        self.options = ViewOptions(
+            str(settings.value("units", "metric")), _flag(settings.value("snap", True))
+        )
+        self.ask: Ask = _ask_with_dialog(self)
+        self.message_box: QMessageBox | None = None
+        self._autosaved = None
+        self.setWindowIcon(icon("hullwright"))
+
+        self.plan_view = PlanView(document, self.options)
+        self.profile_view = ProfileView(document, self.options)
+        self.section_view = SectionView(document, self.options)
+        self.point_entry = PointEntry(document, self.options)
+        self.views = (self.plan_view, self.profile_view, self.section_view)
+        lengthwise = QSplitter(Qt.Orientation.Vertical)
+        lengthwise.addWidget(self.plan_view)
+        lengthwise.addWidget(self.profile_view)
+        drawings = QSplitter(Qt.Orientation.Horizontal)
+        drawings.addWidget(lengthwise)
+        drawings.addWidget(self.section_view)
+        drawings.setSizes([700, 340])
+        central = QWidget()
+        column = QVBoxLayout(central)
+        column.setContentsMargins(0, 0, 0, 0)
+        column.setSpacing(0)
+        column.addWidget(drawings, 1)
+        column.addWidget(self.point_entry)
+        self.setCentralWidget(central)
+
+        self.setCorner(Qt.Corner.BottomRightCorner, Qt.DockWidgetArea.RightDockWidgetArea)
+        self.results = ResultsPanel(document, self.options)
+        self.results.helpRequested.connect(self.show_safety_notes)
+        self.results_dock = self._dock(self.results, "Stability", Qt.DockWidgetArea.RightDockWidgetArea)
+        self.loads = LoadEditor(document, self.options)
+        self.loads_dock = self._dock(self.loads, "Loads", Qt.DockWidgetArea.BottomDockWidgetArea)
+
+        self.cursor_label = QLabel()
+        self.cursor_label.setFont(style.figure_font())
+        self.cursor_label.setMinimumWidth(300)
+        self.statusBar().addPermanentWidget(self.cursor_label)
+        for view in self.views:
+            view.cursorMoved.connect(self.cursor_label.setText)
+
+        self._build_actions()
+        self._build_menus()
+        self._build_toolbar()
+
+        document.notice.connect(self._on_notice)
+        document.fileChanged.connect(self._update_title)
+        document.designChanged.connect(self._update_title)
+        self.options.changed.connect(self._on_options_changed)
+        self._update_title()
+
+        self.autosave_timer = QTimer(self)
+        self.autosave_timer.setInterval(AUTOSAVE_MS)
+        self.autosave_timer.timeout.connect(self.autosave)
+        self.autosave_timer.start()
+
+        self.resize(1440, 900)
+        geometry = settings.value("window/geometry")
+        if geometry is not None:
+            self.restoreGeometry(geometry)
+        state = settings.value("window/state")
+        self._default_docks = state is None or not self.restoreState(state)
+
+    # ------------------------------------------------------------ construction
+
+    def _dock(self, widget: QWidget, title: str, area: Qt.DockWidgetArea) -> QDockWidget:
+        dock = QDockWidget(title, self)
+        dock.setObjectName(f"dock-{title.lower()}")
+        dock.setWidget(widget)
+        dock.setFeatures(
+            QDockWidget.DockWidgetFeature.DockWidgetMovable | QDockWidget.DockWidgetFeature.DockWidgetFloatable
+            | QDockWidget.DockWidgetFeature.DockWidgetClosable
+        )
+        self.addDockWidget(area, dock)
+        return dock
+
+    def showEvent(self, event) -> None:
+        super().showEvent(event)
+        if self._default_docks:  # first start: give the drawings most of the room
+            self._default_docks = False
+            self.resizeDocks([self.loads_dock], [190], Qt.Orientation.Vertical)
+            self.resizeDocks([self.results_dock], [400], Qt.Orientation.Horizontal)
+
+    def add_panel(self, widget: QWidget, title: str) -> QDockWidget:
+        """Dock another panel (e.g. builder's checks) as a tab beside the loads."""
+        dock = self._dock(widget, title, Qt.DockWidgetArea.BottomDockWidgetArea)
+        self.tabifyDockWidget(self.loads_dock, dock)
+        self.view_menu.addAction(dock.toggleViewAction())
+        return dock
+
+    def _action(self, text: str, slot, shortcut=None, icon_name: str | None = None, tip: str = "") -> QAction:
+        action = QAction(text, self)
+        if icon_name:
+            action.setIcon(icon(icon_name))
+        if shortcut is not None:
+            action.setShortcut(QKeySequence(shortcut))
+        if tip:
+            action.setToolTip(tip)
+            action.setStatusTip(tip)
+        action.triggered.connect(slot)
+        return action
+
+    def _build_actions(self) -> None:
+        keys = QKeySequence.StandardKey
+        self.new_action = self._action("&New", self.new_design, keys.New, "new", "Start a new hull")
+        self.open_action = self._action("&Open…", self.open_dialog, keys.Open, "open", "Open a design file")
+        self.save_action = self._action("&Save", self.save, keys.Save, "save", "Save the design")
+        self.save_as_action = self._action("Save &as…", self.save_as, keys.SaveAs)
+        self.plate_action = self._action(
+            "Export &plate…", self.export_plate, "Ctrl+E", "plate", "Write the print plate for the build team"
+        )
+        self.quit_action = self._action("&Quit", self.close, keys.Quit)
+        self.undo_action = self.document.undo_stack.createUndoAction(self, "&Undo")
+        self.undo_action.setShortcut(QKeySequence(keys.Undo))
+        self.undo_action.setIcon(icon("undo"))
+        self.redo_action = self.document.undo_stack.createRedoAction(self, "&Redo")
+        self.redo_action.setShortcuts([QKeySequence(keys.Redo), QKeySequence("Ctrl+Y")])
+        self.redo_action.setIcon(icon("redo"))
+        self.remove_point_action = self._action(
+            "Remove selected point", self.document.remove_selected_point, tip="Remove the selected control point"
+        )
+        self.fit_action = self._action("&Fit all drawings", self.fit_all, "Ctrl+0", "fit", "Fit every drawing to its view")
+        self.snap_action = self._action("S&nap to grid", self.options.set_snap, icon_name="snap",
+                                        tip="Round dragged points to a 5 mm (1/8 in) grid")
+        self.snap_action.setCheckable(True)
+        self.snap_action.setChecked(self.options.snap)
+        self.units_group = QActionGroup(self)
+        self.unit_actions: dict[str, QAction] = {}
+        for name, text in (("metric", "&Metric (mm, kg)"), ("imperial", "&Imperial (in, lb)")):
+            action = QAction(text, self, checkable=True)
+            action.setChecked(self.options.units.name == name)
+            action.triggered.connect(lambda _checked, n=name: self.options.set_units(n))
+            self.units_group.addAction(action)
+            self.unit_actions[name] = action
+        self.safety_action = self._action("&Safety notes…", self.show_safety_notes)
+        self.keys_action = self._action("Mouse and &keys…", self.show_keys_help)
+        self.about_action = self._action("&About Hullwright…", self.show_about)
+
+    def _build_menus(self) -> None:
+        bar = self.menuBar()
+        file_menu = bar.addMenu("&File")
+        file_menu.addActions([self.new_action, self.open_action])
+        self.recent_menu = file_menu.addMenu("Open &recent")
+        self.recent_menu.aboutToShow.connect(self._fill_recent_menu)
+        self.samples_menu = file_menu.addMenu("Open sa&mple")
+        for path in sample_paths():
+            label = path.stem.replace("-", " ").capitalize()
+            self.samples_menu.addAction(label, lambda p=path: self.open_sample(p))
+        file_menu.addSeparator()
+        file_menu.addActions([self.save_action, self.save_as_action, self.plate_action])
+        file_menu.addSeparator()
+        file_menu.addAction(self.quit_action)
+        edit_menu = bar.addMenu("&Edit")
+        edit_menu.addActions([self.undo_action, self.redo_action])
+        edit_menu.addSeparator()
+        edit_menu.addActions([self.remove_point_action, self.snap_action])
+        self.view_menu = bar.addMenu("&View")
+        self.view_menu.addAction(self.fit_action)
+        units_menu = self.view_menu.addMenu("&Units")
+        units_menu.addActions(list(self.unit_actions.values()))
+        self.view_menu.addSeparator()
+        self.view_menu.addActions([self.results_dock.toggleViewAction(), self.loads_dock.toggleViewAction()])
+        help_menu = bar.addMenu("&Help")
+        help_menu.addActions([self.safety_action, self.keys_action, self.about_action])
+
+    def _build_toolbar(self) -> None:
+        bar = self.addToolBar("Main")
+        bar.setObjectName("toolbar-main")
+        bar.setMovable(False)
+        bar.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextBesideIcon)
+        bar.addActions([self.new_action, self.open_action, self.save_action])
+        bar.addSeparator()
+        bar.addActions([self.undo_action, self.redo_action])
+        bar.addSeparator()
+        bar.addActions([self.fit_action, self.snap_action])
+        bar.addSeparator()
+        for action in self.unit_actions.values():
+            bar.addAction(action)
+        bar.addSeparator()
+        bar.addAction(self.plate_action)
+
+    # ------------------------------------------------------------ small slots
+
+    def _on_notice(self, text: str) -> None:
+        if text:
+            self.statusBar().showMessage(text, 8000)
+        else:
+            self.statusBar().clearMessage()
+
+    def _on_options_changed(self) -> None:
+        self.settings.setValue("units", self.options.units.name)
+        self.settings.setValue("snap", self.options.snap)
+        self.unit_actions[self.options.units.name].setChecked(True)
+        self.snap_action.setChecked(self.options.snap)
+
+    def _update_title(self) -> None:
+        path = self.document.path
+        where = path.name if path is not None else "not saved yet"
+        self.setWindowTitle(f"{self.document.committed.name} — {where}[*] · Hullwright")
+        self.setWindowModified(self.document.is_modified)
+
+    def fit_all(self) -> None:
+        for view in self.views:
+            view.fit()
+
+    def show_message(self, title: str, text: str, icon_kind=QMessageBox.Icon.Warning) -> QMessageBox:
+        """A non-blocking message (one box, reused), echoed in the status bar."""
+        box = self.message_box
+        if box is None:
+            box = self.message_box = QMessageBox(self)
+            box.setWindowModality(Qt.WindowModality.WindowModal)
+        box.setIcon(icon_kind)
+        box.setWindowTitle(title)
+        box.setText(text)
+        box.open()
+        self.statusBar().showMessage(f"{title}: {text.splitlines()[0]}", 10000)
+        return box
+
+    # ------------------------------------------------------------ files
+
+    def confirm_discard(self) -> bool:
+        """True if it is fine to drop the current design (saved, or the user said so)."""
+        if not self.document.is_modified:
+            return True
+        answer = self.ask(
+            "Unsaved changes",
+            f"Save the changes to “{self.document.committed.name}” first?",
+            Button.Save | Button.Discard | Button.Cancel,
+            Button.Save,
+        )
+        if answer == Button.Save:
+            return self.save()
+        return answer == Button.Discard
+
+    def new_design(self) -> None:
+        if self.confirm_discard():
+            self.document.replace_design(starter_design(), None)
+            self.fit_all()
+
+    def open_dialog(self) -> None:
+        if not self.confirm_discard():
+            return
+        start = str(self.settings.value("last_folder", str(Path.home())))
+        path, _ = QFileDialog.getOpenFileName(self, "Open design", start, FILE_FILTER)
+        if path:
+            self.open_path(path, confirmed=True)
+
+    def open_path(self, path: str | Path, confirmed: bool = False) -> bool:
+        """Open a design file; on any problem show why and keep the current design."""
+        if not confirmed and not self.confirm_discard():
+            return False
+        try:
+            self.document.open(path)
+        except DesignFileError as e:
+            self.show_message("Could not open the file", f"{e}\n\nThe design on screen is unchanged.")
+            return False
+        path = Path(path).resolve()
+        add_recent_file(self.settings, str(path))
+        self.settings.setValue("last_folder", str(path.parent))
+        self.fit_all()
+        self.statusBar().showMessage(f"Opened {path.name}", 5000)
+        return True
+
+    def open_sample(self, path: Path) -> bool:
+        """Open a demo design as a new, unsaved copy (the sample itself stays as it is)."""
+        if not self.confirm_discard():
+            return False
+        try:
+            design = load_design(path)
+        except DesignFileError as e:
+            self.show_message("Could not open the sample", str(e))
+            return False
+        self.document.replace_design(design, None)
+        self.fit_all()
+        self.statusBar().showMessage(f"Sample “{design.name}”: save it under a new name to keep changes", 8000)
+        return True
+
+    def _fill_recent_menu(self) -> None:
+        self.recent_menu.clear()
+        files = recent_files(self.settings)
+        if not files:
+            self.recent_menu.addAction("(none yet)").setEnabled(False)
+        for name in files:
+            self.recent_menu.addAction(name, lambda p=name: self.open_path(p))
+
+    def save(self) -> bool:
+        """Save to the current file (asks for a name the first time)."""
+        if self.document.path is None:
+            return self.save_as()
+        return self.save_to(self.document.path)
+
+    def save_as(self) -> bool:
+        start = self.document.path or Path(str(self.settings.value("last_folder", str(Path.home())))) / (
+            _file_stem(self.document.committed.name) + ".json"
+        )
+        path, _ = QFileDialog.getSaveFileName(self, "Save design as", str(start), FILE_FILTER)
+        if not path:
+            return False
+        if not path.lower().endswith(".json"):
+            path += ".json"
+        return self.save_to(Path(path))
+
+    def save_to(self, path: Path) -> bool:
+        """Save atomically to ``path``; on failure say why and keep everything as it was."""
+        try:
+            saved = self.document.save(path)
+        except OSError as e:
+            self.show_message("Could not save", f"{path}: {e.strerror or e}\n\nNothing was overwritten.")
+            return False
+        add_recent_file(self.settings, str(saved.resolve()))
+        self.settings.setValue("last_folder", str(saved.resolve().parent))
+        self._clear_recovery()
+        self.statusBar().showMessage(f"Saved {saved.name}", 5000)
+        return True
+
+    def export_plate(self) -> None:
+        """Write the print plate (the plate module is loaded only when asked for)."""
+        try:
+            from app import plate
+        except ImportError as e:
+            self.show_message(
+                "Plate export not available",
+                f"The print plate is not part of this build yet ({e}).",
+                QMessageBox.Icon.Information,
+            )
+            return
+        folder = self.document.path.parent if self.document.path else Path.home()
+        suggested = folder / f"{_file_stem(self.document.committed.name)}-plate.png"
+        dialog = PlateDialog(self, list(plate.PAPER_SIZES), suggested)
+        dialog.accepted.connect(lambda: self._write_plate(plate, *dialog.choice()))
+        dialog.open()
+
+    def _write_plate(self, plate, path: Path, paper: str, dpi: int) -> None:
+        if path.suffix.lower() not in (".png", ".pdf"):
+            path = path.with_suffix(".png")
+        source = self.document.path.name if self.document.path else "not saved"
+        try:
+            plate.render_plate_file(
+                self.document.committed, path, paper=paper, dpi=dpi, units=self.options.units.name, source=source
+            )
+        except (HullwrightError, OSError) as e:
+            self.show_message("Could not write the plate", str(e))
+            return
+        self.statusBar().showMessage(f"Plate written to {path}", 8000)
+
+    # ------------------------------------------------------------ recovery
+
+    def autosave(self) -> None:
+        """Write unsaved work to the recovery file (only when something changed)."""
+        design = self.document.committed
+        if not self.document.is_modified or design is self._autosaved:
+            return
+        try:
+            save_design(design, recovery_path(self.settings))
+        except OSError as e:
+            self.statusBar().showMessage(f"Autosave failed: {e.strerror or e}", 8000)
+            return
+        self._autosaved = design
+        self.settings.setValue("recovery/source", str(self.document.path or ""))
+
+    def _clear_recovery(self) -> None:
+        recovery_path(self.settings).unlink(missing_ok=True)
+        self.settings.remove("recovery/source")
+        self._autosaved = None
+
+    def offer_recovery(self) -> bool:
+        """After a crash: offer the autosaved design; True if it was recovered."""
+        path = recovery_path(self.settings)
+        if not path.exists():
+            return False
+        source = str(self.settings.value("recovery/source", ""))
+        answer = self.ask(
+            "Recover unsaved work?",
+            "Hullwright did not close normally last time. Open the design it saved for you"
+            + (f" (from {Path(source).name})" if source else "")
+            + "?\n\nNo deletes the autosaved copy.",
+            Button.Yes | Button.No,
+            Button.Yes,
+        )
+        if answer != Button.Yes:
+            self._clear_recovery()
+            return False
+        try:
+            design = load_design(path)
+        except DesignFileError as e:
+            self.show_message("Could not recover", f"The autosaved copy is damaged: {e}")
+            self._clear_recovery()
+            return False
+        self.document.replace_design(design, Path(source) if source else None)
+        self.document.mark_unsaved()
+        self.fit_all()
+        return True
+
+    # ------------------------------------------------------------ help
+
+    def show_first_run_notice(self) -> SafetyDialog | None:
+        """Show the safety notes once, at the first start (non-blocking)."""
+        if _flag(self.settings.value("first_run_done", False)):
+            return None
+        dialog = SafetyDialog(self, first_run=True)
+        dialog.finished.connect(lambda _result: self.settings.setValue("first_run_done", True))
+        dialog.open()
+        return dialog
+
+    def show_safety_notes(self) -> None:
+        SafetyDialog(self).open()
+
+    def show_keys_help(self) -> None:
+        self.show_message("Mouse and keys", KEYS_HELP, QMessageBox.Icon.NoIcon)
+
+    def show_about(self) -> None:
+        self.show_message(
+            "About Hullwright",
+            "Hullwright 0.1: sketch a small boat's hull, load it, and see how it floats "
+            "and how far it can heel.\n\nA design aid, not a certification.",
+            QMessageBox.Icon.Information,
+        )
+
+    # ------------------------------------------------------------ closing
+
+    def closeEvent(self, event: QCloseEvent) -> None:
+        if not self.confirm_discard():
+            event.ignore()
+            return
+        self.settings.setValue("window/geometry", self.saveGeometry())
+        self.settings.setValue("window/state", self.saveState())
+        self._clear_recovery()
+        self.autosave_timer.stop()
+        event.accept()
+
+
+def _flag(value: object) -> bool:
+    """A boolean from QSettings (INI files give back the text 'true'/'false')."""
+    if isinstance(value, str):
+        return value.lower() in ("true", "1", "yes")
+    return bool(value)
+
+
+def _file_stem(name: str) -> str:
+    keep = "".join(c if c.isalnum() or c in "-_ " else " " for c in name)
+    return "-".join(keep.lower().split())[:60] or "design"

@@ -1,0 +1,260 @@
+"""Section view: one section shape at true scale at its station, both sides, afloat.
+
+The shape is stored normalised (u, v) and drawn in true scale at its station, so a
+handle dragged here moves in real millimetres or inches.  The upright waterline at the
+station, and G, B and M, are drawn from the analysis, so GM can be seen as a distance.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+import pyqtgraph as pg
+from PySide6.QtCore import QRectF, QSignalBlocker
+from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QHBoxLayout, QToolButton
+
+from hydro import Analysis, HullSketch, Stations
+from hydro.curves import sample_polyline
+from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
+
+from app import editing, style
+from app.control_points import ControlPoints
+from app.document import HullDocument
+from app.drawing import OutlineItem
+from app.editing import EditRefused, PointRef
+from app.sketch_view import SketchView
+from app.view_options import ViewOptions
+
+__all__ = ["SectionView"]
+
+
+class SectionView(SketchView):
+    """The chosen section shape, mirrored, with its station, waterline, G, B and M."""
+
+    x_name = "y"
+    y_name = "z"
+    x_title = "out from the centreline"
+    y_title = "height"
+
+    def __init__(self, document: HullDocument, options: ViewOptions):
+        super().__init__(document, options, "Section", "true scale at its station")
+        self.shape_index = 0
+        self.shape_box = QComboBox()
+        self.shape_box.setToolTip("Which section shape to edit")
+        self.shape_box.currentIndexChanged.connect(self._on_shape_chosen)
+        self.station_box = QDoubleSpinBox()
+        self.station_box.setKeyboardTracking(False)
+        self.station_box.setRange(-1e5, 1e5)
+        self.station_box.setToolTip("Station of this shape (length from the aft end)")
+        self.station_box.editingFinished.connect(self._on_station_typed)
+        self.smooth_box = QCheckBox("smooth")
+        self.smooth_box.setToolTip("Smooth curve through the points, or hard chines (straight panels)")
+        self.smooth_box.toggled.connect(self._on_smooth_toggled)
+        add = QToolButton()
+        add.setText("+")
+        add.setToolTip("Add a copy of this shape at another station")
+        add.clicked.connect(self._add_shape)
+        remove = QToolButton()
+        remove.setText("−")
+        remove.setToolTip("Remove this shape (one must remain)")
+        remove.clicked.connect(self._remove_shape)
+        controls = QHBoxLayout()
+        controls.setContentsMargins(6, 0, 4, 2)
+        for w in (self.shape_box, self.station_box, self.smooth_box, add, remove):
+            controls.addWidget(w)
+        controls.addStretch(1)
+        self.layout().insertLayout(1, controls)
+
+        self.water = pg.PlotCurveItem(pen=pg.mkPen(None), brush=pg.mkBrush(style.WATER_FILL))
+        self.water.setZValue(5)
+        self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
+        self.body_plan = pg.PlotCurveItem(pen=pg.mkPen(style.INK_FAINT, width=1), connect="finite")
+        self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
+        self.waterline.setZValue(6)
+        self.centreline = pg.InfiniteLine(pos=0.0, angle=90, pen=pg.mkPen(style.INK_FAINT, width=1))
+        self.centres = pg.ScatterPlotItem(pxMode=True)
+        self.centres.setZValue(8)
+        self.labels = {name: pg.TextItem(name, color=c, anchor=(-0.4, 0.5)) for name, c in (
+            ("G", style.SELECTED), ("B", style.WATER_LINE), ("M", style.INK))}
+        for item in (self.water, self.outline, self.body_plan, self.waterline, self.centreline, self.centres):
+            self.plot.addItem(item)
+        for label in self.labels.values():
+            label.setZValue(9)
+            self.plot.addItem(label, ignoreBounds=True)
+        self.handles = ControlPoints()
+        self.add_handles("section", self.handles)
+        self.apply_options()
+
+    # ------------------------------------------------------------ which shape
+
+    def ref_for(self, curve: str, index: int) -> PointRef:
+        return PointRef("section", index, self.shape_index)
+
+    def owns(self, ref: PointRef) -> bool:
+        return ref.curve == "section" and ref.shape == self.shape_index
+
+    def show_shape(self, index: int) -> None:
+        """Edit section shape ``index``."""
+        self.shape_index = index
+        self.refresh()
+        self.fit()
+
+    def _on_shape_chosen(self, index: int) -> None:
+        if index >= 0 and index != self.shape_index:
+            self.document.select(None)
+            self.show_shape(index)
+
+    def _edit_sections(self, sections: tuple, text: str) -> bool:
+        return self.commit_sketch(replace(self.sketch(), sections=sections), text)
+
+    def _on_station_typed(self) -> None:
+        sketch = self.sketch()
+        if sketch is None:
+            return
+        x = self.options.units.from_length(self.station_box.value())
+        shape = sketch.sections[self.shape_index]
+        if abs(x - shape.x) < 1e-9:
+            return
+        sections = list(sketch.sections)
+        sections[self.shape_index] = replace(shape, x=x)
+        if not self._edit_sections(tuple(sections), f"Move section {self.shape_index + 1}"):
+            self.refresh()
+
+    def _on_smooth_toggled(self, on: bool) -> None:
+        sketch = self.sketch()
+        if sketch is None or sketch.sections[self.shape_index].smooth == on:
+            return
+        sections = list(sketch.sections)
+        sections[self.shape_index] = replace(sections[self.shape_index], smooth=on)
+        if not self._edit_sections(tuple(sections), f"Section {self.shape_index + 1} {'smooth' if on else 'hard chine'}"):
+            self.refresh()
+
+    def _add_shape(self) -> None:
+        sketch = self.sketch()
+        if sketch is None or self.document.is_previewing:
+            return
+        shape = sketch.sections[self.shape_index]
+        x0, x1 = sketch.x_range
+        nxt = sketch.sections[self.shape_index + 1].x if self.shape_index + 1 < len(sketch.sections) else x1
+        if nxt - shape.x < 2 * editing.MIN_GAP_M:
+            prev = sketch.sections[self.shape_index - 1].x if self.shape_index > 0 else x0
+            new_x, at = 0.5 * (prev + shape.x), self.shape_index
+        else:
+            new_x, at = 0.5 * (shape.x + nxt), self.shape_index + 1
+        sections = list(sketch.sections)
+        sections.insert(at, replace(shape, x=new_x))
+        if self._edit_sections(tuple(sections), "Add section shape"):
+            self.show_shape(at)
+
+    def _remove_shape(self) -> None:
+        sketch = self.sketch()
+        if sketch is None or self.document.is_previewing:
+            return
+        if len(sketch.sections) < 2:
+            self.document.notice.emit("Not removed: the hull needs at least one section shape")
+            return
+        sections = sketch.sections[: self.shape_index] + sketch.sections[self.shape_index + 1 :]
+        if self._edit_sections(sections, f"Remove section {self.shape_index + 1}"):
+            self.document.select(None)
+            self.show_shape(max(0, self.shape_index - 1))
+
+    # ------------------------------------------------------------ drawing
+
+    def _update_header(self, sketch: HullSketch) -> None:
+        units = self.options.units
+        n = len(sketch.sections)
+        with QSignalBlocker(self.shape_box):
+            if self.shape_box.count() != n:
+                self.shape_box.clear()
+                self.shape_box.addItems([f"shape {i + 1} of {n}" for i in range(n)])
+            self.shape_box.setCurrentIndex(self.shape_index)
+        with QSignalBlocker(self.station_box):
+            self.station_box.setDecimals(units.length_decimals)
+            self.station_box.setSuffix(f" {units.length}")
+            self.station_box.setPrefix("at x = ")
+            self.station_box.setValue(units.to_length(sketch.sections[self.shape_index].x))
+        with QSignalBlocker(self.smooth_box):
+            self.smooth_box.setChecked(sketch.sections[self.shape_index].smooth)
+
+    def refresh(self) -> None:
+        hull = self.document.design.hull
+        if isinstance(hull, Stations):
+            self._show_stations(hull)
+            return
+        self.shape_index = min(self.shape_index, len(hull.sections) - 1)
+        self._update_header(hull)
+        shape = hull.sections[self.shape_index]
+        b, k, d = editing.section_frame(hull, self.shape_index)
+        uv = sample_polyline(np.asarray(shape.points, dtype=float), shape.smooth, SMOOTH_SAMPLES_PER_SPAN)
+        y, z = uv[:, 0] * b, k + uv[:, 1] * d
+        self.outline.set_polygon(np.concatenate([y, -y[::-1]]), np.concatenate([z, z[::-1]]))
+        self.body_plan.setData([], [])
+        pts = np.asarray(shape.points, dtype=float)
+        self.handles.set_points(pts[:, 0] * b, k + pts[:, 1] * d, self.selected_index("section"))
+
+    def _show_stations(self, stations: Stations) -> None:
+        """A fixed table of offsets: every station, mirrored, nothing to drag."""
+        ys, zs = [], []
+        for h in stations.half_sections:
+            ys += [h[:, 0], -h[::-1, 0], [np.nan]]
+            zs += [h[:, 1], h[::-1, 1], [np.nan]]
+        self.body_plan.setData(np.concatenate(ys), np.concatenate(zs))
+        self.outline.set_polygon(np.array([0.0]), np.array([0.0]))
+        self.handles.set_points(np.array([]), np.array([]), None)
+
+    def _station_x(self) -> float | None:
+        hull = self.document.design.hull
+        if isinstance(hull, HullSketch):
+            return hull.sections[min(self.shape_index, len(hull.sections) - 1)].x
+        return None
+
+    def show_analysis(self, analysis: Analysis) -> None:
+        hs = analysis.hydrostatics
+        if hs is None:
+            self.water.setData([], [])
+            self.waterline.setData([], [])
+            self.centres.setData([])
+            for label in self.labels.values():
+                label.setText("")
+            return
+        rect = self.extent()
+        x = self._station_x()
+        x = 0.5 * (hs.station_x[0] + hs.station_x[-1]) if x is None else x
+        wl = hs.h + hs.tau * x
+        reach = 0.7 * rect.width()
+        ys = np.array([-reach, reach])
+        self.waterline.setData(ys, np.array([wl, wl]))
+        self.water.setData(ys, np.array([wl, wl]), fillLevel=rect.top() - 0.4 * rect.height())
+        w = analysis.weights
+        keel_z = w.vcg - w.kg
+        points = {"G": (w.tcg, w.vcg), "B": (hs.tcb, keel_z + hs.kb), "M": (0.0, keel_z + hs.km)}
+        self.centres.setData(
+            [
+                dict(pos=points["G"], symbol="o", size=11, brush=style.SELECTED, pen="w"),
+                dict(pos=points["B"], symbol="o", size=9, brush="w", pen=pg.mkPen(style.WATER_LINE, width=2)),
+                dict(pos=points["M"], symbol="t1", size=11, brush=style.INK, pen="w"),
+            ]
+        )
+        for name, label in self.labels.items():
+            label.setText(name)
+            label.setPos(*points[name])
+
+    def extent(self) -> QRectF:
+        hull = self.document.design.hull
+        if isinstance(hull, HullSketch):
+            b, k, d = editing.section_frame(hull, min(self.shape_index, len(hull.sections) - 1))
+            b = max(b * max(1.0, max(p[0] for p in hull.sections[self.shape_index].points)), 0.05)
+            return QRectF(-b, k, 2 * b, max(d, 0.05))
+        b = hull.max_half_breadth
+        top = float(max(h[:, 1].max() for h in hull.half_sections))
+        return QRectF(-b, hull.keel_z, 2 * b, max(top - hull.keel_z, 0.05))
+
+    def insert_at(self, x: float, y: float) -> None:
+        try:
+            new, ref = editing.insert_section_point(self.sketch(), self.shape_index, x, y)
+        except EditRefused as e:
+            self.document.notice.emit(f"No point added: {e}")
+            return
+        if self.commit_sketch(new, f"Add {ref.label()}"):
+            self.document.select(ref)

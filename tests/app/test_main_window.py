@@ -1,0 +1,160 @@
+"""The window's file handling: save and reopen, broken files, close prompts, recovery, units."""
+
+import sys
+from dataclasses import replace
+
+import pytest
+from PySide6.QtWidgets import QMessageBox
+
+from hydro import load_design
+
+from app.document import HullDocument
+from app.main_window import MainWindow, sample_paths
+from app.safety_dialog import SafetyDialog
+from app.settings import open_settings, recent_files, recovery_path
+from tests.app.helpers import sample
+
+Button = QMessageBox.StandardButton
+
+
+def _window(qtbot, design=None, answer=Button.Discard):
+    window = MainWindow(HullDocument(design or sample("heron-punt")), open_settings())
+    window.ask = lambda *args: answer
+    qtbot.addWidget(window)
+    window.document.recompute_now()
+    return window
+
+
+def _widen(window, amount=0.05):
+    doc = window.document
+    hull = doc.committed.hull
+    x, b = hull.plan.points[2]
+    doc.edit(replace(doc.committed, hull=replace(hull, plan=hull.plan.with_point(2, (x, b + amount)))), "wider")
+    doc.recompute_now()
+
+
+def _readout(window):
+    return {key: label.text() for key, label in window.results.values.items()}
+
+
+def test_save_close_reopen_gives_the_same_figures(qtbot, tmp_path):
+    window = _window(qtbot)
+    _widen(window)
+    assert window.isWindowModified() or window.document.is_modified
+    path = tmp_path / "wide punt.json"
+    assert window.save_to(path)
+    assert not window.document.is_modified
+    figures, gm = _readout(window), window.document.analysis.hydrostatics.gm
+    assert window.close()
+    again = _window(qtbot, design=sample("tern-pram"))
+    assert again.open_path(path)
+    again.document.recompute_now()
+    assert _readout(again) == figures
+    assert again.document.analysis.hydrostatics.gm == gm
+    assert again.document.path == path.resolve()
+    assert recent_files(again.settings)[0] == str(path.resolve())
+
+
+def test_broken_file_shows_a_message_and_loses_nothing(qtbot, tmp_path):
+    window = _window(qtbot)
+    _widen(window)
+    before, undo_count = window.document.committed, window.document.undo_stack.count()
+    broken = tmp_path / "broken.json"
+    broken.write_text("{ this is not json")
+    assert not window.open_path(broken, confirmed=True)
+    box = window.message_box
+    assert box is not None and box.isVisible()
+    assert "not valid JSON" in box.text() and "unchanged" in box.text()
+    foreign = tmp_path / "foreign.json"
+    foreign.write_text('{"format": "someone-else", "version": 3}')
+    assert not window.open_path(foreign, confirmed=True)
+    assert "not a Hullwright design" in window.message_box.text()
+    assert window.document.committed is before
+    assert window.document.undo_stack.count() == undo_count
+    assert window.document.is_modified
+
+
+def test_close_with_unsaved_changes_asks_first(qtbot, tmp_path):
+    window = _window(qtbot, answer=Button.Cancel)
+    _widen(window)
+    window.show()
+    assert not window.close()
+    assert window.isVisible()
+    window.ask = lambda *args: Button.Discard
+    assert window.close()
+
+
+def test_autosave_and_recovery_after_a_crash(qtbot):
+    window = _window(qtbot)
+    _widen(window, 0.07)
+    window.autosave()
+    recovery = recovery_path(window.settings)
+    assert recovery.exists()
+    edited = window.document.committed
+    # a crash: the window is never closed, a new one starts
+    survivor = _window(qtbot, answer=Button.Yes)
+    assert survivor.offer_recovery()
+    assert survivor.document.committed == edited
+    assert survivor.document.is_modified
+    survivor.ask = lambda *args: Button.Discard
+    assert survivor.close()
+    assert not recovery.exists()
+
+
+def test_declining_recovery_deletes_the_copy(qtbot):
+    window = _window(qtbot)
+    _widen(window)
+    window.autosave()
+    other = _window(qtbot, answer=Button.No)
+    assert not other.offer_recovery()
+    assert not recovery_path(other.settings).exists()
+
+
+def test_first_run_notice_once_and_never_blocking(qtbot):
+    window = _window(qtbot)
+    window.show()
+    dialog = window.show_first_run_notice()
+    assert isinstance(dialog, SafetyDialog) and dialog.isVisible()
+    dialog.accept()
+    assert window.show_first_run_notice() is None
+
+
+def test_units_switch_changes_no_value_and_is_remembered(qtbot):
+    window = _window(qtbot)
+    design = window.document.committed
+    metric = _readout(window)["draft"]
+    window.unit_actions["imperial"].trigger()
+    assert window.document.committed is design
+    assert not window.document.is_modified
+    assert window.results.units["draft"].text() == "in"
+    assert float(_readout(window)["draft"]) == pytest.approx(float(metric) / 25.4, abs=0.03)
+    assert window.settings.value("units") == "imperial"
+    window.unit_actions["metric"].trigger()
+    assert _readout(window)["draft"] == metric
+
+
+def test_samples_open_as_unsaved_copies(qtbot):
+    window = _window(qtbot)
+    paths = sample_paths()
+    assert len(paths) >= 4
+    assert len(window.samples_menu.actions()) == len(paths)
+    assert window.open_sample(paths[-1])
+    assert window.document.committed == load_design(paths[-1])
+    assert window.document.path is None and not window.document.is_modified
+
+
+def test_plate_export_without_the_plate_module_says_so(qtbot, monkeypatch):
+    monkeypatch.setitem(sys.modules, "app.plate", None)
+    window = _window(qtbot)
+    window.export_plate()
+    assert "not part of this build" in window.message_box.text()
+
+
+def test_title_marks_unsaved_changes(qtbot):
+    window = _window(qtbot)
+    assert not window.isWindowModified()
+    assert "[*]" in window.windowTitle()
+    _widen(window)
+    assert window.isWindowModified()
+    window.document.undo_stack.undo()
+    assert not window.isWindowModified()
