@@ -33,6 +33,8 @@ TOLERANCE = 1e-10
 #: Joint Newton steps before the safeguarded path takes over.
 FAST_ITERATIONS = 12
 MAX_ITERATIONS = 60
+#: A Newton step smaller than this fraction of the hull's size ends the fast path.
+STEP_DONE = 1e-5
 
 
 @dataclass(frozen=True, eq=False)
@@ -163,6 +165,12 @@ def _joint_newton(
         tau = np.where(move, tau + dtau, tau)
         if not move.any():
             break
+        # Newton converges quadratically: after a step this small the residual is far
+        # inside the tolerance, which the caller checks at the final evaluation
+        tiny = (np.abs(dh) <= STEP_DONE * span) & (np.abs(dtau) * length <= STEP_DONE * span)
+        if (done | (move & tiny)).all():
+            done = done | (move & tiny)
+            break
     return h, tau, done
 
 
@@ -217,6 +225,17 @@ def _bracketed_trim(
     return h, tau, done
 
 
+def _balanced(
+    table: SectionTable, c: Cut, volume: float, x_g: float, eta_g: FloatArray, tau: FloatArray
+) -> NDArray[np.bool_]:
+    """Volume and pitch balance within tolerance, judged on an evaluated cut."""
+    w = table.weights
+    vol = c.area @ w
+    pitch = c.area @ table.weights_x - x_g * vol + tau * (c.q_eta @ w - eta_g * vol)
+    length = float(table.x[-1] - table.x[0])
+    return (np.abs(vol - volume) <= TOLERANCE * volume) & (np.abs(pitch) <= TOLERANCE * volume * length)
+
+
 def solve_equilibrium(
     table: SectionTable,
     frame: HeelFrame,
@@ -240,21 +259,31 @@ def solve_equilibrium(
     """
     h = np.array(h0, dtype=float)
     tau = np.array(tau0, dtype=float)
+    tau_start = np.asarray(tau0, dtype=float)
+    w, wx = table.weights, table.weights_x
+    length = float(table.x[-1] - table.x[0])
     if free_trim:
-        h, tau, ok = _joint_newton(table, frame, volume, x_g, eta_g, h, tau)
+        h, tau, _ = _joint_newton(table, frame, volume, x_g, eta_g, h, tau)
+        c = cut(table, frame, _levels(table, h, tau))
+        ok = _balanced(table, c, volume, x_g, eta_g, tau)
+        if not ok.all():  # one more Newton pass for those not quite there
+            idx = np.flatnonzero(~ok)
+            h[idx], tau[idx], _ = _joint_newton(table, frame.take(idx), volume, x_g, eta_g[idx], h[idx], tau[idx])
+            c = cut(table, frame, _levels(table, h, tau))
+            ok = _balanced(table, c, volume, x_g, eta_g, tau)
         # a far jump in trim means Newton found another equilibrium (standing on end)
-        ratio = float(np.max(frame.eta_high - frame.eta_low)) / float(table.x[-1] - table.x[0])
-        ok &= np.abs(tau - tau0) <= 2.0 * ratio
+        ratio = float(np.max(frame.eta_high - frame.eta_low)) / length
+        ok &= np.abs(tau - tau_start) <= 2.0 * ratio
         if not ok.all():
             idx = np.flatnonzero(~ok)
             sub = frame.take(idx)
             h[idx], tau[idx], ok[idx] = _bracketed_trim(
-                table, sub, volume, x_g, eta_g[idx], np.asarray(tau0, dtype=float)[idx], np.asarray(h0, dtype=float)[idx]
+                table, sub, volume, x_g, eta_g[idx], tau_start[idx], np.asarray(h0, dtype=float)[idx]
             )
+            c = cut(table, frame, _levels(table, h, tau))
     else:
         h, ok = waterline_for_trim(table, frame, volume, tau, h)
-    w, wx = table.weights, table.weights_x
-    c = cut(table, frame, _levels(table, h, tau))
+        c = cut(table, frame, _levels(table, h, tau))
     vol = c.area @ w
     safe_vol = np.where(vol > 0, vol, 1.0)
     return Equilibrium(
