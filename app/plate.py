@@ -677,6 +677,7 @@ class _LinesPlan:
     den: int  # lines scale 1:den
     den_b: int  # sections scale 1:den_b
     height: float  # mm the panel needs
+    stacked: bool  # sections and dimensions below profile and plan (else beside them)
 
 
 class _Sheet:
@@ -797,41 +798,69 @@ class _Sheet:
         return max(c.text_width(s, t.small) for s in texts) + 14.0
 
     def _info_height(self, two_bars: bool) -> float:
-        return self.lh_body * 7.6 + self.lh_small * (6.4 if two_bars else 3.2)
+        return self.lh_body * 5.6 + self.lh_small * (6.4 if two_bars else 3.2)
 
     def _plan_lines(self, w: float, budget: float) -> _LinesPlan:
-        """Pick the largest standard scales at which the views fit ``w`` x ``budget``."""
+        """Largest standard scales at which the views fit ``w`` x ``budget``: sections
+        and main dimensions beside profile and plan, or below them when that gives a
+        larger scale."""
         hl, lh = self.lines, self.lh_small
         scales = _METRIC_SCALES if self.u.name == "metric" else tuple(_IMPERIAL_SCALES)
-        L, B, Dp = hl.length, hl.beam, self._profile_top()
+        L, B, Dp, D = hl.length, hl.beam, self._profile_top(), hl.height
         fixed = self.head_h + 3.3 * lh + 6.5
-        side_min = max(52.0, w * 0.22)
         dim_w = self._dim_width()
-        side_fixed = self.head_h + 4.5 * lh
-        den = next(
-            (
-                d
-                for d in scales
-                if (Dp + B) * 1000 / d + fixed <= budget
-                and hl.height * 1000 / d + side_fixed + self._info_height(False) <= budget
-                and L * 1000 / d + dim_w + side_min <= w
-            ),
-            scales[-1],
-        )
-        side_w = w - L * 1000 / den - dim_w
-        den_b = next(
-            (
-                d
-                for d in scales
-                if B * 1000 / d + 12.0 <= side_w
-                and hl.height * 1000 / d + side_fixed + self._info_height(d != den) <= budget
-            ),
-            scales[-1],
-        )
-        side_fixed += self._info_height(den_b != den)
-        s, sb = 1000.0 / den, 1000.0 / den_b
-        height = max((Dp + B) * s + fixed, hl.height * sb + side_fixed)
-        return _LinesPlan(den, den_b, height)
+        sec_fixed = 4.0 * lh
+
+        def views_h(d: int) -> float:
+            return (Dp + B) * 1000 / d + fixed
+
+        def sections(width: float, room: float, den: int) -> int | None:
+            return next(
+                (
+                    d
+                    for d in scales
+                    if B * 1000 / d + 12.0 <= width
+                    and D * 1000 / d + sec_fixed + self._info_height(d != den) <= room
+                ),
+                None,
+            )
+
+        # beside: a column of at least 52 mm right of the views
+        side_min = max(52.0, w * 0.22)
+        beside = scales[-1], scales[-1]
+        for d in scales:
+            room = budget - self.head_h
+            if views_h(d) <= budget and L * 1000 / d + dim_w + side_min <= w:
+                db = sections(w - L * 1000 / d - dim_w, room, d)
+                if db is not None:
+                    beside = d, db
+                    break
+        # stacked: sections (left half) and dimensions (right half) below the views
+        stacked: tuple[int, int] | None = None
+        for d in scales:
+            room = budget - views_h(d) - 2.0
+            if d >= beside[0] or L * 1000 / d + dim_w > w:
+                continue
+            db = next(
+                (
+                    db
+                    for db in scales
+                    if B * 1000 / db + 12.0 <= w * 0.45
+                    and D * 1000 / db + sec_fixed <= room
+                    and self._info_height(db != d) <= room
+                ),
+                None,
+            )
+            if db is not None:
+                stacked = d, db
+                break
+        if stacked is not None:
+            d, db = stacked
+            lower = max(D * 1000 / db + sec_fixed, self._info_height(db != d))
+            return _LinesPlan(d, db, views_h(d) + 2.0 + lower, True)
+        d, db = beside
+        side_h = self.head_h + D * 1000 / db + sec_fixed + self._info_height(db != d)
+        return _LinesPlan(d, db, max(views_h(d), side_h), False)
 
     def paint_lines(
         self, x: float, y: float, w: float, h: float, plan: _LinesPlan, rows: Sequence[int]
@@ -940,11 +969,16 @@ class _Sheet:
             c.segment(xs[i], Yp(-hl.sheer_y[i]), xs[i], Yp(hl.sheer_y[i]), 0.5, HULL)
         self._dim_vertical(x_end + 11.0, Yp(-B / 2), Yp(B / 2), f"B {u.length_text(B)}")
         self._dim_horizontal(X(hl.x[0]), x_end, Yp(B / 2) + 3.0, f"L {u.length_text(L)}")
-        # sections and main dimensions, to the right
-        bx = x + L * s + self._dim_width() + 2.0
-        bw = x + w - bx
-        sec_bottom = self._paint_body_plan(bx, top, bw, 1000.0 / den_b, rows)
-        self._paint_main_dims(bx, sec_bottom + lh * 1.5, bw, rows, den, den_b)
+        # sections and main dimensions: below the views, or to their right
+        if plan.stacked:
+            low = Yp(B / 2) + 3.0 + lh * 0.5 + 2.0
+            self._paint_body_plan(x, low, w * 0.45, 1000.0 / den_b, rows)
+            self._paint_main_dims(x + w * 0.5, low, w * 0.5, rows, den, den_b)
+        else:
+            bx = x + L * s + self._dim_width() + 2.0
+            bw = x + w - bx
+            sec_bottom = self._paint_body_plan(bx, top, bw, 1000.0 / den_b, rows)
+            self._paint_main_dims(bx, sec_bottom + lh, bw, rows, den, den_b)
 
     def _mark_loads(
         self, X: Callable[[float], float], Zp: Callable[[float], float], labels: _Labels
@@ -1103,10 +1137,12 @@ class _Sheet:
             else f"{u.length_text(float(gaps.min()))} to {u.length_text(float(gaps.max()))}"
         )
         keel_low = float(hl.keel.min())
+        depth = u.length_text(float(hl.sheer_z[mid] - hl.keel[mid]))
         items = [
-            ("Length", u.length_text(hl.length)),
-            ("Beam", u.length_text(hl.beam)),
-            ("Depth amidships", u.length_text(float(hl.sheer_z[mid] - hl.keel[mid]))),
+            (
+                "L × B × D",
+                f"{u.length_text(hl.length, False)} × {u.length_text(hl.beam, False)} × {depth}",
+            ),
             ("Station spacing", spacing),
             (
                 "Keel rocker",
