@@ -14,17 +14,13 @@ and the title block.
 
 from __future__ import annotations
 
-import ctypes
 import datetime as _dt
 import math
 import os
 import secrets
-import sys
 from collections.abc import Callable, Iterable, Mapping, Sequence
 from dataclasses import dataclass, field
-from functools import wraps
 from pathlib import Path
-from typing import ParamSpec, TypeVar
 
 import numpy as np
 from PySide6.QtCore import QMarginsF, QPointF, QRectF, Qt
@@ -191,40 +187,6 @@ _SMALL_SHEET = _TypeSizes(title=12.0, heading=8.0, body=7.2, small=7.0, margin=8
 
 def _type_sizes(page_w_mm: float) -> _TypeSizes:
     return _LARGE_SHEET if page_w_mm > 350.0 else _SMALL_SHEET
-
-
-# ----------------------------------------------------------------------------- Qt guard
-
-_P = ParamSpec("_P")
-_R = TypeVar("_R")
-
-
-def _hand_back_none_references(func: Callable[_P, _R]) -> Callable[_P, _R]:
-    """Keep None alive across ``func`` on CPython < 3.12.
-
-    PySide6 6.12.0 returns None from its void methods (setPen, drawRect, ...) without
-    taking a new reference, so every call lowers None's reference count, and Python
-    aborts ("none_dealloc") once it reaches zero: a few plates in one process were
-    enough.  The count lost during ``func`` is given back with Py_IncRef (references
-    owned by nobody, like the ones Qt failed to take).  From Python 3.12 None is
-    immortal and this does nothing.
-    """
-    if sys.version_info >= (3, 12):
-        return func
-    incref = ctypes.pythonapi.Py_IncRef
-    incref.argtypes = [ctypes.py_object]
-    incref.restype = None
-
-    @wraps(func)
-    def guarded(*args: _P.args, **kwargs: _P.kwargs) -> _R:
-        before = sys.getrefcount(None)
-        try:
-            return func(*args, **kwargs)
-        finally:
-            for _ in range(before - sys.getrefcount(None)):
-                incref(None)
-
-    return guarded
 
 
 # ----------------------------------------------------------------------------- canvas
@@ -1676,7 +1638,6 @@ class _Sheet:
 # ----------------------------------------------------------------------------- entry points
 
 
-@_hand_back_none_references
 def paint_plate(
     painter: QPainter,
     page_rect_px: QRectF,
@@ -1729,7 +1690,6 @@ def _paper(paper: str) -> tuple[float, float]:
         ) from None
 
 
-@_hand_back_none_references
 def render_plate_image(
     design: Design,
     paper: str = "A3",
@@ -1787,7 +1747,6 @@ def _write_pdf(
         painter.end()
 
 
-@_hand_back_none_references
 def render_plate_file(
     design: Design,
     path: str | os.PathLike[str],

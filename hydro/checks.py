@@ -21,7 +21,7 @@ from numpy.typing import NDArray
 from hydro.design import Design, analyse_stations
 from hydro.equilibrium import solve_equilibrium
 from hydro.errors import HullwrightError, LoadError
-from hydro.hull import HullSketch, Stations, generate_stations, scale_breadth
+from hydro.hull import HullSketch, Stations, scale_breadth
 from hydro.loads import (
     CREW_MASS_KG,
     HEAVY_CREW_MASS_KG,
