@@ -41,6 +41,7 @@ from PySide6.QtGui import (
 )
 
 from app.units import UnitSystem, system
+from hydro import checks
 from hydro.design import Design, analyse
 from hydro.errors import HullwrightError
 from hydro.hull import Stations
@@ -556,6 +557,8 @@ def _figures(a: Analysis, u: UnitSystem, marks: PlateMarks) -> list[tuple[str, s
     if marks.crew_shift_heel_deg is not None:
         verdict = f" - {marks.crew_shift_verdict}" if marks.crew_shift_verdict else ""
         rows.append(("Crew shift heel", f"{_deg(marks.crew_shift_heel_deg)}{verdict}"))
+    elif marks.crew_shift_verdict:
+        rows.append(("Crew shift", marks.crew_shift_verdict))
     for name, x in marks.level_trim_seats:
         rows.append((f"Level trim: {name}", f"seat at x {L(x)}"))
     return rows
@@ -1356,6 +1359,8 @@ class _Sheet:
         hmax = float(heel[-1])
         ymax = float(np.nanmax(gz)) if finite.any() else 1.0
         ymin = float(np.nanmin(gz)) if finite.any() else 0.0
+        if m.crew_shift_arm is not None:  # show the whole heeling-arm curve
+            ymax = max(ymax, u.to_length(m.crew_shift_arm))
         ystep = _nice_step(max(ymax - min(ymin, 0.0), 1e-6), 5)
         y_hi = math.ceil((ymax + 0.12 * (ymax - min(ymin, 0.0))) / ystep) * ystep
         y_lo = min(0.0, math.floor(ymin / ystep) * ystep)
@@ -1367,14 +1372,24 @@ class _Sheet:
             (HULL, Qt.PenStyle.SolidLine, 0.55, "GZ from heeled equilibrium, free to trim"),
             (MUTED, Qt.PenStyle.DashLine, 0.25, "wall-sided estimate (holds at small heel only)"),
         ]
-        if m.crew_shift_heel_deg is not None:
-            txt = f"crew shift: heel {m.crew_shift_heel_deg:.1f}°"
+        if m.crew_shift_heel_deg is not None or m.crew_shift_arm is not None:
+            txt = (
+                f"crew shift: heel {m.crew_shift_heel_deg:.1f}°"
+                if m.crew_shift_heel_deg is not None
+                else "crew-shift heeling arm"
+            )
             legend.append(
                 (
                     MARK,
                     Qt.PenStyle.DashDotLine,
                     0.35,
-                    f"{txt}, {m.crew_shift_verdict}" if m.crew_shift_verdict else txt,
+                    (
+                        f"{txt}, {m.crew_shift_verdict}"
+                        if m.crew_shift_heel_deg is not None
+                        else f"{txt} ({m.crew_shift_verdict})"
+                    )
+                    if m.crew_shift_verdict
+                    else txt,
                 )
             )
         px0, px1 = x + ylabel_w + 1.5, x + w - 1.0
@@ -1676,6 +1691,30 @@ def paint_plate(
     return layout
 
 
+def marks_from_checks(design: Design, analysis: Analysis) -> PlateMarks:
+    """The builder's checks the plate carries: all crew to the side at seat height
+    (offset-load test) and the seat that trims the boat level, for the crew member who
+    has to move least.  Nothing when the boat does not float or has no crew."""
+    if analysis.hydrostatics is None or analysis.curve is None or not design.loads.crew:
+        return PlateMarks()
+    try:
+        shift = checks.crew_shift(design, analysis=analysis)
+        trims = [checks.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
+    except HullwrightError:
+        return PlateMarks()
+    verdict = {
+        "holds": "holds",
+        "floods": "the gunwale goes under first",
+        "capsizes": "capsizes",
+    }[shift.verdict]
+    movable = [t for t in trims if t.x_after is not None]
+    seats: tuple[tuple[str, float], ...] = ()
+    if movable and abs(analysis.hydrostatics.trim_deg) > 0.05:
+        best = min(movable, key=lambda t: abs(t.x_after - t.x_before))  # type: ignore[operator]
+        seats = ((best.what, float(best.x_after)),)  # type: ignore[arg-type]
+    return PlateMarks(shift.static_heel_deg, f"all crew to the side: {verdict}", shift.arm0, seats)
+
+
 def _ensure_gui_app() -> QGuiApplication:
     app = QGuiApplication.instance()
     return app if app is not None else QGuiApplication([])  # type: ignore[return-value]
@@ -1759,7 +1798,8 @@ def render_plate_file(
     """Write the plate to ``path`` (.png at ``dpi`` or vector .pdf), atomically.
 
     The plate is rendered to a temporary file in the same folder, then moved over
-    ``path``; a failed render leaves no file behind.
+    ``path``; a failed render leaves no file behind.  Without ``extras`` the plate
+    carries the builder's checks from :func:`marks_from_checks`.
 
     Raises
     ------
@@ -1776,6 +1816,8 @@ def render_plate_file(
     analysis = analyse(design)
     if not target.parent.is_dir():
         raise HullwrightError(f"folder {target.parent} does not exist")
+    if extras is None:
+        extras = marks_from_checks(design, analysis)
     # Qt creates the file itself, so it gets the usual permissions (umask applied)
     tmp = str(target.parent / f".{target.stem}-{secrets.token_hex(6)}{suffix}")
     try:
