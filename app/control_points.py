@@ -68,6 +68,7 @@ class ControlPoints(pg.ScatterPlotItem):
         """Stop listening to the drag in progress (Esc); True if there was one."""
         was = self._drag_index is not None
         self._drag_index = None
+        self.setAcceptHoverEvents(True)
         return was
 
     def mouseClickEvent(self, ev) -> None:
@@ -93,6 +94,7 @@ class ControlPoints(pg.ScatterPlotItem):
             spot = spots[0]
             self._drag_index = int(spot.index())
             self._offset = spot.pos() - ev.buttonDownPos()
+            self.setAcceptHoverEvents(False)  # no hover repaints while the point follows
             self.pointSelected.emit(self._drag_index)
         ev.accept()
         index = self._drag_index
@@ -102,4 +104,5 @@ class ControlPoints(pg.ScatterPlotItem):
         self.pointDragged.emit(index, float(target.x()), float(target.y()))
         if ev.isFinish():
             self._drag_index = None
+            self.setAcceptHoverEvents(True)
             self.dragFinished.emit(index)

@@ -7,14 +7,16 @@ Edits
     ``preview`` (during a drag: no undo entry, a rough analysis), then ``finish_preview``
     (one undo step) or ``cancel_preview``; ``edit`` for everything else (numeric entry,
     nudges, loads, add/delete).  Each is checked first; an impossible design is refused
-    with a message on ``notice`` and nothing changes.
+    (or, during a drag, held at the last good one) with a message on ``notice``.
 
-Recomputation
-    Every change restarts one single-shot zero-delay timer; when the event loop comes
-    round, the newest design is analysed once (older requests are simply dropped).
-    While dragging, the analysis is rough: :data:`ROUGH_STATION_COUNT` stations and a
-    heel step of at least :data:`ROUGH_HEEL_STEP_DEG` degrees; on release the full
-    analysis follows.  Full analyses are cached, so undo and redo show at once.
+Frames
+    Every change restarts one single-shot zero-delay timer.  When the event loop comes
+    round, the newest preview is checked and shown (``designChanging``) and the design
+    on screen is analysed once, so the views and the readout repaint together and older
+    requests are simply dropped (newest edit wins).  While dragging, the analysis is
+    rough: :data:`ROUGH_STATION_COUNT` stations and a heel step of at least
+    :data:`ROUGH_HEEL_STEP_DEG` degrees; on release the full analysis follows.  Full
+    analyses are cached, so undo and redo show at once.
 """
 
 from __future__ import annotations
@@ -191,6 +193,7 @@ class HullDocument(QObject):
         self._path: Path | None = path
         self._selection: PointRef | None = None
         self._analysis: Analysis | None = None
+        self._analysed: Design | None = None
         self._analysis_rough = False
         self._analysis_error = ""
         self._rough_requested = False
@@ -200,7 +203,9 @@ class HullDocument(QObject):
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
-        self._timer.timeout.connect(self._run_analysis)
+        self._timer.timeout.connect(self._on_frame)
+        self._pending: tuple[Design, str] | None = None
+        self._last_drag_notice = ""
         self._schedule(rough=False)
 
     def _on_clean_changed(self, _clean: bool) -> None:
@@ -219,7 +224,7 @@ class HullDocument(QObject):
 
     @property
     def is_previewing(self) -> bool:
-        return self._preview is not None
+        return self._preview is not None or self._pending is not None
 
     @property
     def path(self) -> Path | None:
@@ -265,20 +270,44 @@ class HullDocument(QObject):
             return str(e)
         return ""
 
-    def preview(self, design: Design, note: str = "") -> bool:
-        """Show ``design`` while a drag is in progress; False (and a notice) if impossible."""
-        problem = self._refuse(design)
-        if problem:
-            self.notice.emit(f"Held: {problem}")
-            return False
-        self.notice.emit(f"Held: {note}" if note else "")
+    def preview(self, design: Design, note: str = "") -> None:
+        """Show ``design`` while a drag is in progress (no undo entry).
+
+        Nothing happens at once: the newest preview is checked, shown and analysed
+        when the event loop comes round, so a burst of mouse moves costs one frame.
+        An impossible design is held back with a notice; the last good one stays.
+        """
+        self._pending = (design, note)
+        self._timer.start()
+
+    def _show_pending(self) -> None:
+        """Show the newest preview with its rough analysis (which is also its check)."""
+        (design, note), self._pending = self._pending, None
+        if design == self.design:
+            self._say(f"Held: {note}" if note else "")
+            return
+        try:
+            result = rough_analysis(design)
+        except HullwrightError as e:
+            self._say(f"Held: {e}")
+            return
+        self._say(f"Held: {note}" if note else "")
         self._preview = design
         self.designChanging.emit()
-        self._schedule(rough=True)
-        return True
+        self._publish(result, design, rough=True)
+
+    def _say(self, text: str) -> None:
+        """A drag notice, sent only when it changes (the status bar is slow to repaint)."""
+        if text != self._last_drag_notice:
+            self._last_drag_notice = text
+            self.notice.emit(text)
 
     def finish_preview(self, text: str) -> None:
         """End a drag: the preview becomes one undo step."""
+        if self._pending is not None:
+            (design, _note), self._pending = self._pending, None
+            if not self._refuse(design):
+                self._preview = design
         if self._preview is None:
             return
         after, self._preview = self._preview, None
@@ -290,6 +319,7 @@ class HullDocument(QObject):
 
     def cancel_preview(self) -> None:
         """Abandon a drag: back to the committed design."""
+        self._pending = None
         if self._preview is None:
             return
         self._preview = None
@@ -387,14 +417,22 @@ class HullDocument(QObject):
         self._timer.start()
 
     def recompute_now(self) -> None:
-        """Run a pending analysis at once (tests, benchmarks)."""
+        """Do the pending work (show the newest preview, analyse) at once."""
         if self._timer.isActive():
             self._timer.stop()
+            self._on_frame()
+
+    def _on_frame(self) -> None:
+        if self._pending is not None:
+            self._show_pending()
+        else:
             self._run_analysis()
 
     def _run_analysis(self) -> None:
         design = self.design
         rough = self._rough_requested and self._preview is not None
+        if design is self._analysed and rough == self._analysis_rough:
+            return  # nothing new
         try:
             if rough:
                 result = rough_analysis(design)
@@ -406,10 +444,15 @@ class HullDocument(QObject):
                     self._cache.popitem(last=False)
         except HullwrightError as e:
             self._analysis = None
+            self._analysed = None
             self._analysis_error = str(e)
             self.analysisFailed.emit(self._analysis_error)
             return
+        self._publish(result, design, rough)
+
+    def _publish(self, result: Analysis, design: Design, rough: bool) -> None:
         self._analysis = result
+        self._analysed = design
         self._analysis_rough = rough
         self._analysis_error = ""
         self.analysisReady.emit(result)

@@ -4,10 +4,32 @@ from __future__ import annotations
 
 import numpy as np
 import pyqtgraph as pg
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QPainterPath
-from PySide6.QtWidgets import QGraphicsPathItem
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
-__all__ = ["OutlineItem", "segments", "polygon_path"]
+from app import style
+
+__all__ = ["OutlineItem", "segments", "polygon_path", "style_axes"]
+
+
+def style_axes(plot: pg.PlotWidget) -> None:
+    """Our axis look, with each axis (and the grid it draws) kept as a cached pixmap.
+
+    The plot paints its own background, so it is marked opaque: Qt then does not
+    repaint the window behind it on every change.
+
+    pyqtgraph's axes draw the grid across the whole plot, so without the cache every
+    change of a curve repaints them, which costs more than everything else in a frame.
+    The cache is redrawn when the visible range changes.
+    """
+    plot.viewport().setAttribute(Qt.WidgetAttribute.WA_OpaquePaintEvent)
+    for side in ("bottom", "left"):
+        axis = plot.getAxis(side)
+        axis.setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
+        axis.enableAutoSIPrefix(False)
+        axis.setTextPen(style.INK)
+        axis.setPen(style.INK_FAINT)
 
 
 def polygon_path(x: np.ndarray, y: np.ndarray) -> QPainterPath:
@@ -27,10 +49,13 @@ def segments(x0, y0, x1, y1) -> tuple[np.ndarray, np.ndarray]:
 class OutlineItem(QGraphicsPathItem):
     """A filled, outlined polygon in data coordinates (cosmetic pen)."""
 
-    def __init__(self, pen: str, width: float, fill: str | tuple):
+    def __init__(self, pen: str | None, width: float, fill: str | tuple):
         super().__init__()
-        self.setPen(pg.mkPen(pen, width=width))
+        self.setPen(pg.mkPen(pen, width=width) if pen else pg.mkPen(None))
         self.setBrush(pg.mkBrush(fill))
 
     def set_polygon(self, x: np.ndarray, y: np.ndarray) -> None:
         self.setPath(polygon_path(x, y))
+
+    def clear(self) -> None:
+        self.setPath(QPainterPath())

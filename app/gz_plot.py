@@ -15,6 +15,7 @@ from PySide6.QtCore import Qt
 from hydro import StabilityCurve
 
 from app import style
+from app.drawing import style_axes
 from app.units import UnitSystem
 
 __all__ = ["GzPlot", "nice_ceiling", "LEGEND_HTML"]
@@ -41,11 +42,24 @@ def nice_ceiling(value: float) -> float:
     return 10.0 ** (exponent + 1)
 
 
+def _within(x: np.ndarray, y: np.ndarray, low: float, high: float) -> tuple[np.ndarray, np.ndarray]:
+    """The curve up to and including its first point outside [low, high].
+
+    Dashed lines far outside the plot are slow to draw (the dashes are laid out along
+    the whole length), and nothing past that point is visible anyway.
+    """
+    with np.errstate(invalid="ignore"):
+        out = np.flatnonzero((y < low) | (y > high))
+    end = int(out[0]) + 1 if out.size else y.size
+    return x[:end], y[:end]
+
+
 class GzPlot(pg.PlotWidget):
     """GZ(heel) from the engine, split at gunwale immersion, plus the wall-sided estimate.
 
     ``open_part`` holds the curve up to the gunwale angle and ``beyond_part`` the rest
     (the two share the point where they meet); together they are the engine's data.
+    The wall-sided estimate is drawn up to where it leaves the plot.
     """
 
     def __init__(self) -> None:
@@ -55,11 +69,7 @@ class GzPlot(pg.PlotWidget):
         self.setMouseEnabled(x=False, y=False)
         self.showGrid(x=True, y=True, alpha=0.25)
         self.setMinimumHeight(200)
-        for side in ("bottom", "left"):
-            axis = self.getAxis(side)
-            axis.enableAutoSIPrefix(False)
-            axis.setTextPen(style.INK)
-            axis.setPen(style.INK_FAINT)
+        style_axes(self)
         self.setLabel("bottom", "heel (°)", color=style.INK)
         self.beyond_band = pg.LinearRegionItem(
             orientation="vertical", movable=False, brush=pg.mkBrush(style.NOT_AVAILABLE_FILL), pen=pg.mkPen(None)
@@ -109,10 +119,15 @@ class GzPlot(pg.PlotWidget):
             split = heel.size
         else:
             split = int(np.searchsorted(heel, gunwale, side="right"))
+        finite = gz[np.isfinite(gz)]
+        top = nice_ceiling(max(float(finite.max()) if finite.size else 0.0, 0.01) * 1.15)
+        low = min(float(finite.min()) if finite.size else 0.0, 0.0)
+        # deep negative arms (far past the gunwale) may leave the plot: keep the top readable
+        bottom = -min(nice_ceiling(-low * 1.15), top) if low < 0 else -0.08 * top
         self.open_part.setData(heel[:split], gz[:split], connect="finite")
         start = max(split - 1, 0)
         self.beyond_part.setData(heel[start:], gz[start:], connect="finite")
-        self.wall_sided.setData(heel, curve.wall_sided)
+        self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top), connect="finite")
         if gunwale is None:
             self.gunwale_line.hide()
             self.beyond_band.hide()
@@ -125,9 +140,4 @@ class GzPlot(pg.PlotWidget):
             self.peak.setData([curve.max_gz_deg], [curve.max_gz])
         else:
             self.peak.setData([], [])
-        finite = gz[np.isfinite(gz)]
-        top = nice_ceiling(max(float(finite.max()) if finite.size else 0.0, 0.01) * 1.15)
-        low = min(float(finite.min()) if finite.size else 0.0, 0.0)
-        # deep negative arms (far past the gunwale) may leave the plot: keep the top readable
-        bottom = -min(nice_ceiling(-low * 1.15), top) if low < 0 else -0.08 * top
         self.setRange(xRange=(0.0, last), yRange=(bottom, top), padding=0.02)

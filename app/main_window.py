@@ -11,6 +11,7 @@ Questions that need an answer (save before closing? recover unsaved work?) go th
 
 from __future__ import annotations
 
+import importlib
 from importlib import resources
 from pathlib import Path
 from typing import Callable
@@ -416,7 +417,7 @@ class MainWindow(QMainWindow):
     def export_plate(self) -> None:
         """Write the print plate (the plate module is loaded only when asked for)."""
         try:
-            from app import plate
+            plate = importlib.import_module("app.plate")
         except ImportError as e:
             self.show_message(
                 "Plate export not available",

@@ -54,7 +54,15 @@ class PlanView(SketchView):
         self.add_handles("plan", self.handles)
         self.apply_options()
 
-    def refresh(self) -> None:
+    def drawing_key(self) -> tuple:
+        design = self.document.design
+        hull = design.hull
+        if isinstance(hull, Stations):
+            return (id(hull),)
+        marks = tuple(s.x for s in hull.sections)
+        return (hull.plan, hull.station_count, marks, design.loads.crew, self.document.selection)
+
+    def redraw(self) -> None:
         hull = self.document.design.hull
         if isinstance(hull, Stations):
             self._show_stations(hull)

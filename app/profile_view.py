@@ -36,7 +36,7 @@ class ProfileView(SketchView):
             "Profile",
             "keel and sheer lines",
         )
-        self.water = pg.PlotCurveItem(pen=pg.mkPen(None), brush=pg.mkBrush(style.WATER_FILL))
+        self.water = OutlineItem(None, 0.0, style.WATER_FILL)
         self.water.setZValue(-5)
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
         self.stations = pg.PlotCurveItem(pen=pg.mkPen(style.GRID, width=1), connect="pairs")
@@ -46,6 +46,12 @@ class ProfileView(SketchView):
         self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
         self.centres = pg.ScatterPlotItem(pxMode=True)
         self.centres.setZValue(8)
+        self._centre_style = dict(  # G, B
+            symbol=["o", "o"],
+            size=[11, 9],
+            brush=[pg.mkBrush(style.SELECTED), pg.mkBrush("w")],
+            pen=[pg.mkPen("w"), pg.mkPen(style.WATER_LINE, width=2)],
+        )
         self.g_label = pg.TextItem("G", color=style.SELECTED, anchor=(-0.3, 1.0))
         self.b_label = pg.TextItem("B", color=style.WATER_LINE, anchor=(-0.3, 0.0))
         for label in (self.g_label, self.b_label):
@@ -58,7 +64,14 @@ class ProfileView(SketchView):
         self.add_handles("sheer", self.sheer_handles)
         self.apply_options()
 
-    def refresh(self) -> None:
+    def drawing_key(self) -> tuple:
+        hull = self.document.design.hull
+        if isinstance(hull, Stations):
+            return (id(hull),)
+        marks = tuple(s.x for s in hull.sections)
+        return (hull.keel, hull.sheer, hull.station_count, marks, self.document.selection)
+
+    def redraw(self) -> None:
         hull = self.document.design.hull
         if isinstance(hull, Stations):
             self._show_stations(hull)
@@ -89,7 +102,7 @@ class ProfileView(SketchView):
         hs = analysis.hydrostatics
         rect = self.extent()
         if hs is None:
-            self.water.setData([], [])
+            self.water.clear()
             self.waterline.setData([], [])
             self.centres.setData([])
             self.g_label.setText("")
@@ -99,16 +112,12 @@ class ProfileView(SketchView):
         xs = np.array([rect.left() - pad, rect.right() + pad])
         zs = hs.h + hs.tau * xs
         self.waterline.setData(xs, zs)
-        self.water.setData(xs, zs, fillLevel=rect.top() - 0.3 * rect.height())
+        deep = rect.top() - 0.3 * rect.height()
+        self.water.set_polygon(np.array([xs[0], xs[1], xs[1], xs[0]]), np.array([zs[0], zs[1], deep, deep]))
         w = analysis.weights
         g = (w.lcg, w.vcg)
         b = (hs.lcb, w.vcg - w.kg + hs.kb)
-        self.centres.setData(
-            [
-                dict(pos=g, symbol="o", size=11, brush=style.SELECTED, pen="w"),
-                dict(pos=b, symbol="o", size=9, brush="w", pen=pg.mkPen(style.WATER_LINE, width=2)),
-            ]
-        )
+        self.centres.setData(x=[g[0], b[0]], y=[g[1], b[1]], **self._centre_style)
         self.g_label.setText("G")
         self.g_label.setPos(*g)
         self.b_label.setText("B")

@@ -224,7 +224,7 @@ class ResultsPanel(QWidget):
             self.values[row.key].setText(_text_or_dash(row, analysis, units))
         hs = analysis.hydrostatics
         state = "none" if hs is None else gm_state(hs.gm, hs.bwl)
-        self._show_state(state, "" if hs is None else f"GM {units.length_text(hs.gm)}")
+        self._show_state(state)
         self._show_status(analysis)
         self.gz_plot.show_curve(analysis.curve)
         if self.document.analysis_is_rough:
@@ -240,7 +240,7 @@ class ResultsPanel(QWidget):
         for value in self.values.values():
             value.setText("—")
         self._set_status(f"Cannot analyse: {message}", "unstable")
-        self._show_state("none", "")
+        self._show_state("none")
         self.gz_plot.show_curve(None)
         self.quality.setText("")
 
@@ -271,17 +271,19 @@ class ResultsPanel(QWidget):
                 f"background: {bg}; color: {fg}; border-radius: 4px; padding: 4px 6px;"
             )
 
-    def _show_state(self, state: str, figure: str) -> None:
+    def _show_state(self, state: str) -> None:
+        """The GM state badge (rich text is slow to lay out: only redone on a change)."""
+        if self.state.property("gm_state") == state:
+            return
         word, meaning = _STATE_WORDS[state]
         bg, fg = style.STATE_COLOURS[state]
         glyph = style.STATE_GLYPHS[state]
+        self.state.setProperty("gm_state", state)
         self.state.setText(
             f"<span style='font-size: 14pt; font-weight: 600'>{glyph} {word}</span>"
-            f"&nbsp;&nbsp;{figure}<br><span style='font-size: 9pt'>{meaning}</span>"
+            f"<br><span style='font-size: 9pt'>{meaning}</span>"
         )
-        if self.state.property("gm_state") != state:  # restyling is slow: only on a change
-            self.state.setProperty("gm_state", state)
-            self.state.setStyleSheet(
-                f"background: {bg}; color: {fg}; border: 1px solid {fg}; border-radius: 5px; "
-                "padding: 4px 8px;"
-            )
+        self.state.setStyleSheet(
+            f"background: {bg}; color: {fg}; border: 1px solid {fg}; border-radius: 5px; "
+            "padding: 4px 8px;"
+        )

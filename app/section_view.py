@@ -66,7 +66,7 @@ class SectionView(SketchView):
         controls.addStretch(1)
         self.layout().insertLayout(1, controls)
 
-        self.water = pg.PlotCurveItem(pen=pg.mkPen(None), brush=pg.mkBrush(style.WATER_FILL))
+        self.water = OutlineItem(None, 0.0, style.WATER_FILL)
         self.water.setZValue(5)
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
         self.body_plan = pg.PlotCurveItem(pen=pg.mkPen(style.INK_FAINT, width=1), connect="finite")
@@ -75,6 +75,12 @@ class SectionView(SketchView):
         self.centreline = pg.InfiniteLine(pos=0.0, angle=90, pen=pg.mkPen(style.INK_FAINT, width=1))
         self.centres = pg.ScatterPlotItem(pxMode=True)
         self.centres.setZValue(8)
+        self._centre_style = dict(  # G, B, M
+            symbol=["o", "o", "t1"],
+            size=[11, 9, 11],
+            brush=[pg.mkBrush(style.SELECTED), pg.mkBrush("w"), pg.mkBrush(style.INK)],
+            pen=[pg.mkPen("w"), pg.mkPen(style.WATER_LINE, width=2), pg.mkPen("w")],
+        )
         self.labels = {name: pg.TextItem(name, color=c, anchor=(-0.4, 0.5)) for name, c in (
             ("G", style.SELECTED), ("B", style.WATER_LINE), ("M", style.INK))}
         for item in (self.water, self.outline, self.body_plan, self.waterline, self.centreline, self.centres):
@@ -98,6 +104,8 @@ class SectionView(SketchView):
         """Edit section shape ``index``."""
         self.shape_index = index
         self.refresh()
+        if self.document.analysis is not None:
+            self.show_analysis(self.document.analysis)
         self.fit()
 
     def _on_shape_chosen(self, index: int) -> None:
@@ -177,7 +185,15 @@ class SectionView(SketchView):
         with QSignalBlocker(self.smooth_box):
             self.smooth_box.setChecked(sketch.sections[self.shape_index].smooth)
 
-    def refresh(self) -> None:
+    def drawing_key(self) -> tuple:
+        hull = self.document.design.hull
+        if isinstance(hull, Stations):
+            return (id(hull),)
+        index = min(self.shape_index, len(hull.sections) - 1)
+        frame = editing.section_frame(hull, index)
+        return (index, hull.sections, frame, self.document.selection)
+
+    def redraw(self) -> None:
         hull = self.document.design.hull
         if isinstance(hull, Stations):
             self._show_stations(hull)
@@ -212,7 +228,7 @@ class SectionView(SketchView):
     def show_analysis(self, analysis: Analysis) -> None:
         hs = analysis.hydrostatics
         if hs is None:
-            self.water.setData([], [])
+            self.water.clear()
             self.waterline.setData([], [])
             self.centres.setData([])
             for label in self.labels.values():
@@ -225,17 +241,13 @@ class SectionView(SketchView):
         reach = 0.7 * rect.width()
         ys = np.array([-reach, reach])
         self.waterline.setData(ys, np.array([wl, wl]))
-        self.water.setData(ys, np.array([wl, wl]), fillLevel=rect.top() - 0.4 * rect.height())
+        deep = rect.top() - 0.4 * rect.height()
+        self.water.set_polygon(np.array([ys[0], ys[1], ys[1], ys[0]]), np.array([wl, wl, deep, deep]))
         w = analysis.weights
         keel_z = w.vcg - w.kg
         points = {"G": (w.tcg, w.vcg), "B": (hs.tcb, keel_z + hs.kb), "M": (0.0, keel_z + hs.km)}
-        self.centres.setData(
-            [
-                dict(pos=points["G"], symbol="o", size=11, brush=style.SELECTED, pen="w"),
-                dict(pos=points["B"], symbol="o", size=9, brush="w", pen=pg.mkPen(style.WATER_LINE, width=2)),
-                dict(pos=points["M"], symbol="t1", size=11, brush=style.INK, pen="w"),
-            ]
-        )
+        xs, zs = zip(*(points[name] for name in ("G", "B", "M")))
+        self.centres.setData(x=list(xs), y=list(zs), **self._centre_style)
         for name, label in self.labels.items():
             label.setText(name)
             label.setPos(*points[name])

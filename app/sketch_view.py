@@ -27,6 +27,7 @@ from hydro import Analysis, HullSketch
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
+from app.drawing import style_axes
 from app.editing import PointRef
 from app.view_options import ViewOptions
 
@@ -62,6 +63,7 @@ class SketchView(QWidget):
         self.options = options
         self._handles: dict[str, ControlPoints] = {}
         self._fitted = False
+        self._drawn: tuple | None = None
 
         self.title = QLabel(f"<b>{title}</b>")
         self.hint = QLabel(hint)
@@ -85,11 +87,7 @@ class SketchView(QWidget):
         self.view_box = self.plot.getViewBox()
         self.view_box.setAspectLocked(True, ratio=1.0)
         self.view_box.disableAutoRange()
-        for side in ("bottom", "left"):
-            axis = self.plot.getAxis(side)
-            axis.enableAutoSIPrefix(False)
-            axis.setTextPen(style.INK)
-            axis.setPen(style.INK_FAINT)
+        style_axes(self.plot)
         self.plot.installEventFilter(self)
         self.plot.scene().sigMouseMoved.connect(self._on_mouse_moved)
         self.plot.scene().sigMouseClicked.connect(self._on_mouse_clicked)
@@ -133,7 +131,18 @@ class SketchView(QWidget):
         return ref.index if ref is not None and self.owns(ref) and ref.curve == curve else None
 
     def refresh(self) -> None:
-        """Redraw the geometry from the document's design."""
+        """Redraw the geometry from the document's design, if what it shows changed."""
+        key = self.drawing_key()
+        if key != self._drawn:
+            self._drawn = key
+            self.redraw()
+
+    def drawing_key(self) -> tuple:
+        """Everything the drawing depends on (compared by value to skip redraws)."""
+        raise NotImplementedError
+
+    def redraw(self) -> None:
+        """Draw the geometry from the document's design."""
         raise NotImplementedError
 
     def show_analysis(self, analysis: Analysis) -> None:
@@ -167,6 +176,7 @@ class SketchView(QWidget):
             axis = self.plot.getAxis(side)
             axis.setScale(units.length_factor)
             axis.setLabel(f"{name} ({units.length})", color=style.INK)
+        self._drawn = None
         self.refresh()
 
     def _on_mouse_moved(self, scene_pos: QPointF) -> None:
@@ -192,8 +202,8 @@ class SketchView(QWidget):
     # ------------------------------------------------------------ editing
 
     def _on_dragged(self, curve: str, index: int, x: float, y: float) -> None:
-        sketch = self.sketch()
-        if sketch is None:
+        sketch = self.document.committed.hull  # a drag moves one point from where it was
+        if not isinstance(sketch, HullSketch):
             return
         if self.options.snap:
             step = editing.grid_step(self.options.units.name)

@@ -29,7 +29,7 @@ def test_a_drag_is_one_undo_step_with_a_rough_preview(doc, qtbot):
     start = doc.committed
     x, b = start.hull.plan.points[2]
     for db in (0.02, 0.04, 0.06):
-        assert doc.preview(_with_plan_point(start, 2, (x, b + db)))
+        doc.preview(_with_plan_point(start, 2, (x, b + db)))
         doc.recompute_now()
         assert doc.analysis_is_rough
     assert doc.undo_stack.count() == 0
@@ -47,6 +47,7 @@ def test_cancel_restores_the_committed_design(doc):
     start = doc.committed
     x, b = start.hull.plan.points[2]
     doc.preview(_with_plan_point(start, 2, (x, b + 0.1)))
+    doc.recompute_now()
     assert doc.design != start
     doc.cancel_preview()
     assert doc.design is start
@@ -58,7 +59,8 @@ def test_an_impossible_shape_is_refused_with_a_message(doc, qtbot):
     x, _ = start.hull.plan.points[2]
     bad = _with_plan_point(start, 2, (x, -0.2))
     with qtbot.waitSignal(doc.notice) as notice:
-        assert not doc.preview(bad)
+        doc.preview(bad)
+        doc.recompute_now()
     assert "negative half-breadth" in notice.args[0]
     assert not doc.edit(bad, "bad")
     assert doc.design is start
@@ -91,11 +93,13 @@ def test_nudges_of_one_point_merge_into_one_undo_step(doc):
 def test_the_newest_edit_wins(doc, qtbot):
     start = doc.committed
     x, b = start.hull.plan.points[2]
-    results = []
+    results, shown = [], []
     doc.analysisReady.connect(results.append)
+    doc.designChanging.connect(lambda: shown.append(doc.design))
     for db in (0.01, 0.02, 0.03):
         doc.preview(_with_plan_point(start, 2, (x, b + db)))
     qtbot.waitUntil(lambda: len(results) == 1)
+    assert len(shown) == 1 and shown[0].hull.plan.points[2] == (x, b + 0.03)
     expected = rough_analysis(_with_plan_point(start, 2, (x, b + 0.03)))
     assert results[0].hydrostatics.gm == pytest.approx(expected.hydrostatics.gm, abs=1e-12)
 

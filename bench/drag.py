@@ -1,0 +1,147 @@
+"""App speed: real mouse drags offscreen; prints ``name: value`` lines (milliseconds).
+
+    python bench/drag.py                      # the paper canoe sample (41 stations)
+    python bench/drag.py DESIGN.json          # another design
+    python bench/drag.py --all                # every sample, one line each, then the summary
+
+``drag_frame_ms``: median over the mouse moves of a drag of a plan handle, from sending
+the mouse-move event to the end of the repaint that shows the recomputed readout
+(event handling, document preview, rough analysis, table and plot update, painting of
+every view that changed).  ``drag_frame_p90_ms`` is the 90th percentile.
+``release_ms``: from the button release to the repainted exact figures (full analysis).
+``startup_ms``: from the first line of this script (before Qt is imported) to the
+window shown with its first figures painted; the interpreter's own start is not in it.
+"""
+
+from __future__ import annotations
+
+import time
+
+T0 = time.perf_counter()
+
+import os  # noqa: E402
+import statistics  # noqa: E402
+import sys  # noqa: E402
+import tempfile  # noqa: E402
+from pathlib import Path  # noqa: E402
+
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+_settings_dir = tempfile.mkdtemp(prefix="hullwright-bench-")
+os.environ["HULLWRIGHT_SETTINGS"] = str(Path(_settings_dir) / "settings.ini")
+if "XDG_RUNTIME_DIR" not in os.environ:
+    os.environ["XDG_RUNTIME_DIR"] = _settings_dir
+
+from PySide6.QtCore import QEvent, QObject, QPoint, QPointF, Qt  # noqa: E402
+from PySide6.QtTest import QTest  # noqa: E402
+from PySide6.QtWidgets import QApplication  # noqa: E402
+
+import pyqtgraph as pg  # noqa: E402
+
+from hydro.runtime import keep_freed_memory  # noqa: E402
+
+from app.main import create_window  # noqa: E402
+from app.qt_compat import protect_singletons  # noqa: E402
+
+SAMPLES = Path(__file__).resolve().parents[1] / "sample_hulls"
+DEFAULT = SAMPLES / "paper-loon-canoe.json"
+MOVES = 59
+
+
+class PaintCounter(QObject):
+    """Counts paint events of the widgets it watches."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.count = 0
+
+    def eventFilter(self, watched, event) -> bool:
+        if event.type() == QEvent.Type.Paint:
+            self.count += 1
+        return False
+
+
+def settle(window, painted: PaintCounter, before: int, limit_s: float = 5.0) -> None:
+    """Run the event loop until the analysis is in and the readout plot has repainted."""
+    doc = window.document
+    end = time.perf_counter() + limit_s
+    while (doc.analysis_pending or painted.count == before) and time.perf_counter() < end:
+        QApplication.processEvents()
+
+
+def pixel(plot, x: float, y: float) -> QPoint:
+    return plot.mapFromScene(plot.getViewBox().mapViewToScene(QPointF(x, y)))
+
+
+def run(path: Path, app: QApplication) -> dict[str, float]:
+    window, error = create_window([str(path)])
+    if error:
+        raise SystemExit(f"drag.py: {error}")
+    window.show()
+    gz_painted = PaintCounter()
+    window.results.gz_plot.viewport().installEventFilter(gz_painted)
+    settle(window, gz_painted, 0)
+    shown = time.perf_counter()
+    window.fit_all()
+    QApplication.processEvents()
+
+    plot = window.plan_view.plot
+    viewport = plot.viewport()
+    hull = window.document.committed.hull
+    index = max(range(len(hull.plan.points)), key=lambda i: hull.plan.points[i][1])
+    x, b = hull.plan.points[index]
+    start = pixel(plot, x, b)
+    QTest.mousePress(viewport, Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier, start)
+    QApplication.processEvents()
+    frames = []
+    for i in range(1, MOVES + 1):
+        offset = 30 - abs(30 - i)  # one pixel a move: out 30 px, then back to 0 and out again
+        before = gz_painted.count
+        t = time.perf_counter()
+        end = QPoint(start.x(), start.y() - offset)
+        QTest.mouseMove(viewport, end)
+        settle(window, gz_painted, before)
+        frames.append(time.perf_counter() - t)
+    before = gz_painted.count
+    t = time.perf_counter()
+    QTest.mouseRelease(viewport, Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier, end)
+    settle(window, gz_painted, before)
+    release = time.perf_counter() - t
+    assert window.document.undo_stack.count() == 1, "the drag did not register"
+    frames = frames[2:]  # the first moves start the drag (pyqtgraph's drag threshold)
+    window.document.undo_stack.setClean()
+    window.close()
+    return {
+        "shown": shown,
+        "drag_frame_ms": 1000 * statistics.median(frames),
+        "drag_frame_p90_ms": 1000 * statistics.quantiles(frames, n=10)[-1],
+        "release_ms": 1000 * release,
+    }
+
+
+def main() -> None:
+    args = [a for a in sys.argv[1:] if not a.startswith("--")]
+    app = QApplication.instance() or QApplication([sys.argv[0]])
+    app.setStyle("Fusion")
+    pg.setConfigOptions(antialias=os.environ.get("AA", "1") == "1")
+    keep_freed_memory()
+    protect_singletons()
+    main_path = Path(args[0]) if args else DEFAULT
+    result = run(main_path, app)
+    startup_ms = 1000 * (result["shown"] - T0)
+    if "--all" in sys.argv:
+        for path in sorted(SAMPLES.glob("*.json")):
+            other = run(path, app)
+            print(
+                f"drag_frame_ms[{path.stem}]: {other['drag_frame_ms']:.1f}  "
+                f"(p90 {other['drag_frame_p90_ms']:.1f}, release {other['release_ms']:.1f})"
+            )
+    print(f"design: {main_path.name}")
+    print(f"drag_frame_ms: {result['drag_frame_ms']:.1f}")
+    print(f"drag_frame_p90_ms: {result['drag_frame_p90_ms']:.1f}")
+    print(f"release_ms: {result['release_ms']:.1f}")
+    print(f"startup_ms: {startup_ms:.0f}")
+
+
+if __name__ == "__main__":
+    main()
