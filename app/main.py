@@ -15,7 +15,6 @@ from hydro.runtime import keep_freed_memory
 
 from app.document import HullDocument, starter_design
 from app.main_window import MainWindow, icon, sample_paths
-from app.qt_compat import protect_singletons
 from app.settings import open_settings
 
 __all__ = ["main", "create_window"]
@@ -42,7 +41,6 @@ def create_window(argv: Sequence[str]) -> tuple[MainWindow, str]:
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Run Hullwright; returns the exit code."""
-    protect_singletons()
     args = list(sys.argv[1:] if argv is None else argv)
     app = QApplication.instance() or QApplication([sys.argv[0], *args])
     app.setStyle("Fusion")

@@ -41,7 +41,6 @@ import pyqtgraph as pg  # noqa: E402
 from hydro.runtime import keep_freed_memory  # noqa: E402
 
 from app.main import create_window  # noqa: E402
-from app.qt_compat import protect_singletons  # noqa: E402
 
 SAMPLES = Path(__file__).resolve().parents[1] / "sample_hulls"
 DEFAULT = SAMPLES / "paper-loon-canoe.json"
@@ -125,7 +124,6 @@ def main() -> None:
     app.setStyle("Fusion")
     pg.setConfigOptions(antialias=os.environ.get("AA", "1") == "1")
     keep_freed_memory()
-    protect_singletons()
     main_path = Path(args[0]) if args else DEFAULT
     result = run(main_path, app)
     startup_ms = 1000 * (result["shown"] - T0)

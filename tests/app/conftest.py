@@ -2,10 +2,7 @@
 
 import pytest
 
-from app.qt_compat import protect_singletons
 from app.settings import SETTINGS_ENV
-
-protect_singletons()  # see app/qt_compat.py: shiboken6 6.12 on Python 3.11
 
 
 @pytest.fixture(autouse=True)
