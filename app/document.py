@@ -257,9 +257,20 @@ class HullDocument(QObject):
         return self._selection
 
     def select(self, ref: PointRef | None) -> None:
+        """Select a control point (None, or a point the design does not have: no selection)."""
+        if ref is not None and not self._exists(ref):
+            ref = None
         if ref != self._selection:
             self._selection = ref
             self.selectionChanged.emit()
+
+    def _exists(self, ref: PointRef) -> bool:
+        hull = self._committed.hull
+        if not isinstance(hull, HullSketch) or ref.index < 0:
+            return False
+        if ref.curve == "section":
+            return ref.shape < len(hull.sections) and ref.index < len(hull.sections[ref.shape].points)
+        return ref.index < len(getattr(hull, ref.curve).points)
 
     # ------------------------------------------------------------------ edits
 
@@ -361,18 +372,7 @@ class HullDocument(QObject):
         self._schedule(rough=False)
 
     def _drop_stale_selection(self) -> None:
-        ref = self._selection
-        if ref is None:
-            return
-        hull = self._committed.hull
-        if not isinstance(hull, HullSketch):
-            self.select(None)
-            return
-        if ref.curve == "section":
-            ok = ref.shape < len(hull.sections) and ref.index < len(hull.sections[ref.shape].points)
-        else:
-            ok = ref.index < len(getattr(hull, ref.curve).points)
-        if not ok:
+        if self._selection is not None and not self._exists(self._selection):
             self.select(None)
 
     # ------------------------------------------------------------------ files

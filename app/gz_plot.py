@@ -133,6 +133,10 @@ class GzPlot(pg.PlotWidget):
             self.beyond_band.hide()
         else:
             self.gunwale_line.setValue(gunwale)
+            # label on whichever side of the line has room
+            side = (1, 0) if gunwale > 0.6 * last else (0, 0)
+            self.gunwale_line.label.anchors = [side, side]
+            self.gunwale_line.label.updatePosition()
             self.gunwale_line.show()
             self.beyond_band.setRegion((gunwale, last))
             self.beyond_band.show()

@@ -1,4 +1,8 @@
-"""Plan view: the hull seen from above, both sides, with the half-breadth handles."""
+"""Plan view: the hull seen from above, bow to the right, with the half-breadth handles.
+
+The handles sit on the starboard side (y > 0), which, seen from above with the bow to
+the right, is the lower half of the drawing.
+"""
 
 from __future__ import annotations
 
@@ -27,7 +31,7 @@ class PlanView(SketchView):
     x_name = "x"
     y_name = "y"
     x_title = "length from the aft end"
-    y_title = "out from the centreline"
+    y_title = "to starboard"
 
     def __init__(self, document: HullDocument, options: ViewOptions):
         super().__init__(
@@ -52,6 +56,8 @@ class PlanView(SketchView):
         self.crew.setToolTip("crew seats")
         self.handles = ControlPoints()
         self.add_handles("plan", self.handles)
+        # seen from above with the bow to the right: port up, starboard (+y) down
+        self.view_box.invertY(True)
         self.apply_options()
 
     def drawing_key(self) -> tuple:

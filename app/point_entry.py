@@ -41,7 +41,7 @@ class PointEntry(QWidget):
         self.remove = QPushButton("Remove point")
         self.remove.setToolTip("Remove the selected point (Delete)")
         self.remove.clicked.connect(self.document.remove_selected_point)
-        hint = QLabel("arrows nudge · Shift+arrows ×10 · Esc cancels a drag")
+        hint = QLabel("arrows nudge · Shift ×10 · Esc cancels a drag")
         hint.setStyleSheet(f"color: {style.INK_FAINT};")
         hint.setSizePolicy(QSizePolicy.Policy.Ignored, QSizePolicy.Policy.Preferred)
         layout = QHBoxLayout(self)

@@ -34,11 +34,11 @@ class SectionView(SketchView):
 
     x_name = "y"
     y_name = "z"
-    x_title = "out from the centreline"
+    x_title = "to starboard"
     y_title = "height"
 
     def __init__(self, document: HullDocument, options: ViewOptions):
-        super().__init__(document, options, "Section", "true scale at its station")
+        super().__init__(document, options, "Section", "true scale, looking forward")
         self.shape_index = 0
         self.shape_box = QComboBox()
         self.shape_box.setToolTip("Which section shape to edit")
