@@ -158,3 +158,21 @@ def test_title_marks_unsaved_changes(qtbot):
     assert window.isWindowModified()
     window.document.undo_stack.undo()
     assert not window.isWindowModified()
+
+
+def test_plate_export_writes_the_file(qtbot, tmp_path):
+    plate = pytest.importorskip("app.plate")
+    window = _window(qtbot)
+    target = tmp_path / "punt-plate.png"
+    window._write_plate(plate, target, "A4", 72)
+    assert target.exists() and target.stat().st_size > 0
+    assert window.message_box is None
+
+
+def test_new_design_starts_clean(qtbot):
+    window = _window(qtbot)
+    window.new_design()
+    assert window.document.committed.name == "New hull"
+    assert window.document.path is None and not window.document.is_modified
+    window.document.recompute_now()
+    assert window.document.analysis.status == "ok"
