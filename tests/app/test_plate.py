@@ -369,3 +369,23 @@ def test_cli_rejects_bad_options_with_usage(args, out_dir, capsys):
     assert stop.value.code == 2
     assert "error" in capsys.readouterr().err
     assert not out.exists()
+
+
+def test_plate_marks_come_from_the_builders_checks():
+    """The plate's crew-shift and level-trim marks are the hydro checks' own results."""
+    from app.plate import marks_from_checks
+    from hydro import analyse, load_design
+    from hydro.checks import crew_shift, level_trim
+
+    raft = load_design(SAMPLES / "drift-lab-raft.json")
+    analysis = analyse(raft)
+    marks = marks_from_checks(raft, analysis)
+    shift = crew_shift(raft, analysis=analysis)
+    assert marks.crew_shift_heel_deg == pytest.approx(shift.static_heel_deg)
+    assert marks.crew_shift_arm == pytest.approx(shift.arm0)
+    assert "holds" in marks.crew_shift_verdict
+    (name, x), = marks.level_trim_seats
+    assert x == pytest.approx(next(t.x_after for t in (level_trim(raft, i) for i in range(2)) if t.what == name))
+    punt = load_design(SAMPLES / "heron-punt.json")
+    capsize = marks_from_checks(punt, analyse(punt))
+    assert capsize.crew_shift_heel_deg is None and "capsizes" in capsize.crew_shift_verdict
