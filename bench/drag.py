@@ -72,7 +72,7 @@ def pixel(plot, x: float, y: float) -> QPoint:
     return plot.mapFromScene(plot.getViewBox().mapViewToScene(QPointF(x, y)))
 
 
-def run(path: Path, app: QApplication) -> dict[str, float]:
+def run(path: Path) -> dict[str, float]:
     window, error = create_window([str(path)])
     if error:
         raise SystemExit(f"drag.py: {error}")
@@ -120,16 +120,16 @@ def run(path: Path, app: QApplication) -> dict[str, float]:
 
 def main() -> None:
     args = [a for a in sys.argv[1:] if not a.startswith("--")]
-    app = QApplication.instance() or QApplication([sys.argv[0]])
-    app.setStyle("Fusion")
-    pg.setConfigOptions(antialias=os.environ.get("AA", "1") == "1")
+    qt_app = QApplication.instance() or QApplication([sys.argv[0]])
+    qt_app.setStyle("Fusion")
+    pg.setConfigOptions(antialias=True)  # as the app
     keep_freed_memory()
     main_path = Path(args[0]) if args else DEFAULT
-    result = run(main_path, app)
+    result = run(main_path)
     startup_ms = 1000 * (result["shown"] - T0)
     if "--all" in sys.argv:
         for path in sorted(SAMPLES.glob("*.json")):
-            other = run(path, app)
+            other = run(path)
             print(
                 f"drag_frame_ms[{path.stem}]: {other['drag_frame_ms']:.1f}  "
                 f"(p90 {other['drag_frame_p90_ms']:.1f}, release {other['release_ms']:.1f})"
