@@ -280,6 +280,6 @@ class LoadEditor(QWidget):
             self._edit_loads(f"Edit {field.replace('_', ' ')}", **{field: units.from_length(box.value())})
 
     def _on_wet_typed(self) -> None:
-        if abs(self.wet_box.value() - self.document.committed.loads.wet_factor) > 1e-9:
+        if self.wet_box.value() != round(self.document.committed.loads.wet_factor, self.wet_box.decimals()):
             self._edit_loads("Edit wet material factor", wet_factor=self.wet_box.value())
 

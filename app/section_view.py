@@ -255,8 +255,9 @@ class SectionView(SketchView):
     def extent(self) -> QRectF:
         hull = self.document.design.hull
         if isinstance(hull, HullSketch):
-            b, k, d = editing.section_frame(hull, min(self.shape_index, len(hull.sections) - 1))
-            b = max(b * max(1.0, max(p[0] for p in hull.sections[self.shape_index].points)), 0.05)
+            index = min(self.shape_index, len(hull.sections) - 1)
+            b, k, d = editing.section_frame(hull, index)
+            b = max(b * max(1.0, max(p[0] for p in hull.sections[index].points)), 0.05)
             return QRectF(-b, k, 2 * b, max(d, 0.05))
         b = hull.max_half_breadth
         top = float(max(h[:, 1].max() for h in hull.half_sections))
