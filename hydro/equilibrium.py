@@ -31,7 +31,7 @@ FloatArray = NDArray[np.float64]
 #: Relative tolerance on volume and on the pitch-moment balance.
 TOLERANCE = 1e-10
 #: Joint Newton steps before the safeguarded path takes over.
-FAST_ITERATIONS = 12
+FAST_ITERATIONS = 8
 MAX_ITERATIONS = 60
 #: A Newton step smaller than this fraction of the hull's size ends the fast path.
 STEP_DONE = 1e-5
@@ -143,35 +143,41 @@ def _residual(
 
 def _joint_newton(
     table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
-    h: FloatArray, tau: FloatArray,
-) -> tuple[FloatArray, FloatArray, NDArray[np.bool_]]:
+    h: FloatArray, tau: FloatArray, iterations: int,
+) -> tuple[FloatArray, FloatArray]:
+    """Newton steps on (h, tau) for every angle still moving; the set shrinks as they settle.
+
+    An angle leaves when its residual is within tolerance, when its last step was tiny
+    (quadratic convergence puts it far inside; the caller verifies), or when its
+    Jacobian is singular (the waterline left the hull; the caller's safe path takes it).
+    """
+    h, tau = h.copy(), tau.copy()
     length = float(table.x[-1] - table.x[0])
     span = float(np.max(frame.eta_high - frame.eta_low))
     max_dh, max_dtau = 0.25 * span, 0.25 * span / length
     tol_v, tol_m = TOLERANCE * volume, TOLERANCE * volume * length
-    done = np.zeros(h.size, dtype=bool)
-    for _ in range(FAST_ITERATIONS):
-        r = _residual(table, frame, volume, x_g, eta_g, h, tau)
-        done = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
-        if done.all():
-            break
+    active = np.arange(h.size)
+    sub = frame
+    for _ in range(iterations):
+        ha, ta = h[active], tau[active]
+        r = _residual(table, sub, volume, x_g, eta_g[active], ha, ta)
+        settled = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
         det = r.j11 * r.j22 - r.j12 * r.j21
         good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
         safe = np.where(good, det, 1.0)
         dh = np.clip((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh, max_dh)
         dtau = np.clip((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau, max_dtau)
-        move = good & ~done
-        h = np.where(move, h + dh, h)
-        tau = np.where(move, tau + dtau, tau)
-        if not move.any():
-            break
-        # Newton converges quadratically: after a step this small the residual is far
-        # inside the tolerance, which the caller checks at the final evaluation
+        move = good & ~settled
+        h[active] = np.where(move, ha + dh, ha)
+        tau[active] = np.where(move, ta + dtau, ta)
         tiny = (np.abs(dh) <= STEP_DONE * span) & (np.abs(dtau) * length <= STEP_DONE * span)
-        if (done | (move & tiny)).all():
-            done = done | (move & tiny)
+        keep = move & ~tiny
+        if not keep.any():
             break
-    return h, tau, done
+        if keep.sum() <= 0.5 * active.size:  # copying the rotated vertices pays off
+            active = active[keep]
+            sub = frame.take(active)
+    return h, tau
 
 
 def _bracketed_trim(
@@ -236,6 +242,34 @@ def _balanced(
     return (np.abs(vol - volume) <= TOLERANCE * volume) & (np.abs(pitch) <= TOLERANCE * volume * length)
 
 
+def _accepted(
+    table: SectionTable, frame: HeelFrame, c: Cut, volume: float, x_g: float,
+    eta_g: FloatArray, tau: FloatArray, tau_start: FloatArray,
+) -> NDArray[np.bool_]:
+    """Balanced, and not a far jump in trim (Newton finding the boat standing on end)."""
+    ratio = float(np.max(frame.eta_high - frame.eta_low)) / float(table.x[-1] - table.x[0])
+    near = np.abs(tau - tau_start) <= 2.0 * ratio
+    return _balanced(table, c, volume, x_g, eta_g, tau) & near
+
+
+def _settle(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    h_start: FloatArray, tau_start: FloatArray,
+) -> tuple[FloatArray, FloatArray, NDArray[np.bool_], Cut]:
+    """The angles the fast pass left: restart from a waterline of the right volume at the
+    starting trim (a safe 1-D solve), Newton again, then trim bracketing for the rest."""
+    h, _ = waterline_for_trim(table, frame, volume, tau_start, h_start)
+    h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau_start, MAX_ITERATIONS)
+    c = cut(table, frame, _levels(table, h, tau), full=False)
+    ok = _accepted(table, frame, c, volume, x_g, eta_g, tau, tau_start)
+    if not ok.all():
+        j = np.flatnonzero(~ok)
+        h[j], tau[j], ok[j] = _bracketed_trim(
+            table, frame.take(j), volume, x_g, eta_g[j], tau_start[j], h[j]
+        )
+    return h, tau, ok, cut(table, frame, _levels(table, h, tau))
+
+
 def solve_equilibrium(
     table: SectionTable,
     frame: HeelFrame,
@@ -263,24 +297,18 @@ def solve_equilibrium(
     w, wx = table.weights, table.weights_x
     length = float(table.x[-1] - table.x[0])
     if free_trim:
-        h, tau, _ = _joint_newton(table, frame, volume, x_g, eta_g, h, tau)
+        h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau, FAST_ITERATIONS)
         c = cut(table, frame, _levels(table, h, tau))
-        ok = _balanced(table, c, volume, x_g, eta_g, tau)
-        if not ok.all():  # one more Newton pass for those not quite there
-            idx = np.flatnonzero(~ok)
-            h[idx], tau[idx], _ = _joint_newton(table, frame.take(idx), volume, x_g, eta_g[idx], h[idx], tau[idx])
-            c = cut(table, frame, _levels(table, h, tau))
-            ok = _balanced(table, c, volume, x_g, eta_g, tau)
-        # a far jump in trim means Newton found another equilibrium (standing on end)
-        ratio = float(np.max(frame.eta_high - frame.eta_low)) / length
-        ok &= np.abs(tau - tau_start) <= 2.0 * ratio
+        ok = _accepted(table, frame, c, volume, x_g, eta_g, tau, tau_start)
         if not ok.all():
             idx = np.flatnonzero(~ok)
-            sub = frame.take(idx)
-            h[idx], tau[idx], ok[idx] = _bracketed_trim(
-                table, sub, volume, x_g, eta_g[idx], tau_start[idx], np.asarray(h0, dtype=float)[idx]
+            h_s, t_s, ok_s, c_s = _settle(
+                table, frame.take(idx), volume, x_g, eta_g[idx],
+                np.asarray(h0, dtype=float)[idx], tau_start[idx],
             )
-            c = cut(table, frame, _levels(table, h, tau))
+            h[idx], tau[idx], ok[idx] = h_s, t_s, ok_s
+            for name in ("area", "q_xi", "q_eta", "breadth", "breadth_m1", "breadth_m2"):
+                getattr(c, name)[idx] = getattr(c_s, name)
     else:
         h, ok = waterline_for_trim(table, frame, volume, tau, h)
         c = cut(table, frame, _levels(table, h, tau))

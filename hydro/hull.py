@@ -12,7 +12,7 @@ imported offsets table and an analytic test hull are all the same to it.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 import shapely
@@ -137,10 +137,13 @@ class Stations:
     half_sections : tuple of (n_i, 2) arrays
         Points (y, z) of each half section from the centreline (y = 0) to the
         gunwale, the last point being the gunwale.
+    check_sections : check every outline for self-crossing (shapely); the generator
+        turns it off after checking the shapes it scales
     """
 
     x: FloatArray
     half_sections: tuple[FloatArray, ...]
+    check_sections: bool = field(default=True, repr=False)
 
     def __post_init__(self) -> None:
         x = np.asarray(self.x, dtype=float)
@@ -155,7 +158,10 @@ class Stations:
         if not np.all(np.isfinite(x)) or np.any(np.diff(x) <= 0):
             raise ShapeError("station positions must be finite and strictly increasing")
         for xi, h in zip(x, self.half_sections):
-            validate_half_section(h, f"station at x = {xi:.3f} m")
+            if self.check_sections:
+                validate_half_section(h, f"station at x = {xi:.3f} m")
+            elif h.ndim != 2 or h.shape[1] != 2 or not np.all(np.isfinite(h)):
+                raise ShapeError(f"station at x = {xi:.3f} m: points are not finite (y, z) pairs")
         if max(float(np.max(h[:, 0])) for h in self.half_sections) <= 0:
             raise ShapeError("the hull has no breadth at any station")
 
@@ -263,44 +269,70 @@ def validate_sketch(sketch: HullSketch) -> None:
         )
 
 
-def _blended_shape(sketch: HullSketch, x: float) -> tuple[FloatArray, bool]:
-    secs = sketch.sections
-    xs = np.array([s.x for s in secs])
-    if len(secs) == 1 or x <= xs[0]:
-        s = secs[0]
-        return np.asarray(s.points, dtype=float), s.smooth
-    if x >= xs[-1]:
-        s = secs[-1]
-        return np.asarray(s.points, dtype=float), s.smooth
-    i = int(np.searchsorted(xs, x, side="right") - 1)
-    w = (x - xs[i]) / (xs[i + 1] - xs[i])
-    a = np.asarray(secs[i].points, dtype=float)
-    b = np.asarray(secs[i + 1].points, dtype=float)
-    smooth = secs[i].smooth if w < 0.5 else secs[i + 1].smooth
-    return (1 - w) * a + w * b, smooth
+def _subdivide(points: FloatArray, per_segment: int) -> FloatArray:
+    """A polyline with ``per_segment`` evenly spaced points per span (corners kept)."""
+    frac = np.linspace(0.0, 1.0, per_segment + 1)[:-1]
+    inner = points[:-1, None, :] + frac[None, :, None] * np.diff(points, axis=0)[:, None, :]
+    return np.vstack([inner.reshape(-1, 2), points[-1:]])
+
+
+def _sampled_shapes(sketch: HullSketch) -> FloatArray:
+    """(K, m, 2) every section shape sampled at the same parameters.
+
+    Hard-chine shapes keep their own points when no shape is smooth; otherwise every
+    shape is sampled ``SMOOTH_SAMPLES_PER_SPAN`` times per span (straight spans stay
+    straight), so corresponding samples can be blended.
+    """
+    shapes = [np.asarray(sec.points, dtype=float) for sec in sketch.sections]
+    if not any(sec.smooth for sec in sketch.sections):
+        return np.stack(shapes)
+    return np.stack(
+        [
+            sample_polyline(p, True, SMOOTH_SAMPLES_PER_SPAN)
+            if sec.smooth
+            else _subdivide(p, SMOOTH_SAMPLES_PER_SPAN)
+            for sec, p in zip(sketch.sections, shapes)
+        ]
+    )
+
+
+def _blend(shapes: FloatArray, at: FloatArray, x: FloatArray) -> FloatArray:
+    """(n, m, 2) shapes at stations x, linear between positions ``at``, held beyond."""
+    if len(at) == 1:
+        return np.broadcast_to(shapes[0], (x.size, *shapes.shape[1:]))
+    i = np.clip(np.searchsorted(at, x, side="right") - 1, 0, len(at) - 2)
+    w = np.clip((x - at[i]) / (at[i + 1] - at[i]), 0.0, 1.0)[:, None, None]
+    return (1 - w) * shapes[i] + w * shapes[i + 1]
 
 
 def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
     """Turn the sketch into ``count`` evenly spaced stations (default: its own count).
 
+    Section shapes are sampled once and blended linearly between their positions.
+
     Raises
     ------
     ShapeError
-        If the sketch is impossible (see :func:`validate_sketch`).
+        If the sketch is impossible (see :func:`validate_sketch`), including a blend of
+        two shapes that crosses itself (checked halfway between them).
     """
     validate_sketch(sketch)
     n = sketch.station_count if count is None else count
+    if not 2 <= n <= 1001:
+        raise ShapeError("the station count must be between 2 and 1001")
+    shapes = _sampled_shapes(sketch)
+    at = np.array([sec.x for sec in sketch.sections])
+    for mid in 0.5 * (at[:-1] + at[1:]):
+        validate_half_section(_blend(shapes, at, np.array([mid]))[0], f"the blend at x = {mid:.3f} m")
     x0, x1 = sketch.x_range
     xs = np.linspace(x0, x1, n)
-    b = sketch.plan(xs)
-    k = sketch.keel(xs)
-    d = sketch.sheer(xs) - k
-    halves = []
-    for xi, bi, ki, di in zip(xs, b, k, d):
-        shape, smooth = _blended_shape(sketch, float(xi))
-        uv = sample_polyline(shape, smooth, SMOOTH_SAMPLES_PER_SPAN)
-        halves.append(np.column_stack([uv[:, 0] * max(bi, 0.0), ki + uv[:, 1] * di]))
-    return Stations(xs, tuple(halves))
+    uv = _blend(shapes, at, xs)
+    b = np.maximum(sketch.plan(xs), 0.0)[:, None]
+    k = sketch.keel(xs)[:, None]
+    d = (sketch.sheer(xs) - sketch.keel(xs))[:, None]
+    halves = np.stack([uv[:, :, 0] * b, k + uv[:, :, 1] * d], axis=2)
+    # affine maps with positive scales keep the checked shapes free of crossings
+    return Stations(xs, tuple(halves), check_sections=False)
 
 
 def scale_breadth(sketch: HullSketch, factor: float) -> HullSketch:

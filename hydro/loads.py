@@ -230,26 +230,24 @@ def shell_panels(stations: Stations) -> ShellPanels:
         n = 48
         halves = tuple(_resample_girth(h, n) for h in halves)
     x = stations.x
-    areas: list[FloatArray] = []
-    cents: list[FloatArray] = []
-    kinds: list[NDArray[np.str_]] = []
-    for i in range(len(x) - 1):
-        a = np.column_stack([np.full(n, x[i]), halves[i]])
-        b = np.column_stack([np.full(n, x[i + 1]), halves[i + 1]])
-        for p, q, r in ((a[:-1], b[:-1], b[1:]), (a[:-1], b[1:], a[1:])):
-            nrm = np.cross(q - p, r - p)
-            area = 0.5 * np.linalg.norm(nrm, axis=1)
-            cen = (p + q + r) / 3.0
-            kind = np.where(np.abs(nrm[:, 2]) >= np.abs(nrm[:, 1]), "bottom", "sides")
-            areas.append(2.0 * area)
-            cents.append(cen * [1.0, 0.0, 1.0])
-            kinds.append(kind)
-    table = build_section_table(stations)
-    for end in (0, len(x) - 1):
-        area, _, qz = table.totals[:, end]
+    pts = np.concatenate([np.broadcast_to(x[:, None, None], (x.size, n, 1)), np.stack(halves)], axis=2)
+    a, b = pts[:-1], pts[1:]
+    tris = ((a[:, :-1], b[:, :-1], b[:, 1:]), (a[:, :-1], b[:, 1:], a[:, 1:]))
+    areas, cents, kinds = [], [], []
+    for p, q, r in tris:
+        nrm = np.cross(q - p, r - p).reshape(-1, 3)
+        areas.append(np.linalg.norm(nrm, axis=1))  # twice the triangle: both sides
+        cents.append(((p + q + r) / 3.0).reshape(-1, 3) * [1.0, 0.0, 1.0])
+        kinds.append(np.where(np.abs(nrm[:, 2]) >= np.abs(nrm[:, 1]), "bottom", "sides"))
+    for end in (0, x.size - 1):
+        h = halves[end]
+        ring = np.vstack([h, h[::-1] * [-1.0, 1.0]])  # closed: ends where it began
+        y0, z0, y1, z1 = ring[:-1, 0], ring[:-1, 1], ring[1:, 0], ring[1:, 1]
+        crossp = y0 * z1 - y1 * z0
+        area = 0.5 * crossp.sum()
         if area > 1e-12:
             areas.append(np.array([area]))
-            cents.append(np.array([[x[end], 0.0, qz / area]]))
+            cents.append(np.array([[x[end], 0.0, ((z0 + z1) * crossp).sum() / (6 * area)]]))
             kinds.append(np.array(["ends"]))
     return ShellPanels(np.concatenate(areas), np.vstack(cents), np.concatenate(kinds))
 
