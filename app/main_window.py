@@ -33,6 +33,7 @@ from hydro import DesignFileError, HullwrightError, load_design, save_design
 
 from app import style
 from app.document import HullDocument, starter_design
+from app.checks_panel import ChecksPanel
 from app.load_editor import LoadEditor
 from app.plan_view import PlanView
 from app.plate_dialog import PlateDialog
@@ -143,6 +144,9 @@ class MainWindow(QMainWindow):
         self._build_actions()
         self._build_menus()
         self._build_toolbar()
+        self.checks = ChecksPanel(document, self.options, self.results.gz_plot)
+        self.checks_dock = self.add_panel(self.checks, "Checks")
+        self.loads_dock.raise_()
 
         document.notice.connect(self._on_notice)
         document.fileChanged.connect(self._update_title)
@@ -527,6 +531,7 @@ class MainWindow(QMainWindow):
         self.settings.setValue("window/state", self.saveState())
         self._clear_recovery()
         self.autosave_timer.stop()
+        self.checks.shutdown()
         event.accept()
 
 

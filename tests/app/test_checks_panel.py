@@ -1,0 +1,144 @@
+"""The builder's checks panel: shows the hydro checks' own results, applies them as undo
+steps, and handles the inclining test's readings (bad ones get a message)."""
+
+import math
+
+import numpy as np
+import pytest
+from PySide6.QtWidgets import QTableWidgetItem
+
+from hydro import analyse, checks
+
+from app.checks_panel import ChecksPanel
+from app.document import HullDocument
+from app.gz_plot import GzPlot
+from app.view_options import ViewOptions
+from tests.app.helpers import sample
+
+
+@pytest.fixture
+def panel(qtbot):
+    made = []
+
+    def make(name: str):
+        doc = HullDocument(sample(name))
+        options = ViewOptions()
+        plot = GzPlot()
+        widget = ChecksPanel(doc, options, plot)
+        qtbot.addWidget(widget)
+        qtbot.addWidget(plot)
+        with qtbot.waitSignal(widget.checksReady, timeout=30000):
+            widget.recompute()
+        made.append(widget)
+        return doc, widget, options
+
+    yield make
+    for widget in made:  # no background checks may outlive the widgets
+        widget.shutdown()
+
+
+def test_crew_shift_shown_is_the_engines(panel):
+    doc, widget, _ = panel("drift-lab-raft")
+    expected = checks.crew_shift(doc.committed)
+    shown = widget.results.shift
+    assert shown.verdict == "holds" and "HOLDS" in widget.shift_verdict.text()
+    assert shown.static_heel_deg == pytest.approx(expected.static_heel_deg, abs=1e-9)
+    x, y = widget.arm_curve.getData()
+    np.testing.assert_allclose(y, expected.heeling_arm)
+    (heel,), _ = widget.static_mark.getData()
+    assert heel == pytest.approx(expected.static_heel_deg)
+
+
+def test_capsize_reads_in_words(panel):
+    _, widget, _ = panel("heron-punt")
+    assert widget.results.shift.verdict == "capsizes"
+    assert "CAPSIZES" in widget.shift_verdict.text()
+
+
+def test_only_ticked_crew_move(panel, qtbot):
+    doc, widget, _ = panel("heron-punt")
+    from PySide6.QtCore import Qt
+
+    with qtbot.waitSignal(widget.checksReady, timeout=30000):
+        widget.movers.item(1).setCheckState(Qt.CheckState.Unchecked)
+    assert widget.inputs.movers == (0,)
+    one = checks.crew_shift(doc.committed, members=[0])
+    assert widget.results.shift.arm0 == pytest.approx(one.arm0)
+
+
+def test_level_trim_applies_as_one_undo_step(panel, qtbot):
+    doc, widget, _ = panel("tern-pram")
+    trim = widget.results.trim
+    assert trim.x_after is not None and abs(trim.trim_after_deg) <= 0.01
+    widget.trim_apply.click()
+    assert doc.undo_stack.count() == 1
+    assert doc.committed.loads.crew[0].x == pytest.approx(trim.x_after)
+    assert abs(analyse(doc.committed).hydrostatics.trim_deg) <= 0.01
+    doc.undo_stack.undo()
+    assert doc.committed.loads.crew[0].x == pytest.approx(trim.x_before)
+
+
+def test_beam_for_target_gm_applies(panel, qtbot):
+    doc, widget, options = panel("paper-loon-canoe")
+    with qtbot.waitSignal(widget.checksReady, timeout=30000):
+        widget.target_box.setValue(options.units.to_length(0.25))
+        widget.target_box.editingFinished.emit()
+    beam = widget.results.beam
+    assert beam.target_gm == pytest.approx(0.25)
+    widget.beam_apply.click()
+    # checks.beam_for_gm stops within 0.1 mm of the target
+    assert analyse(doc.committed).hydrostatics.gm == pytest.approx(0.25, abs=1e-4)
+
+
+def test_whatif_table_and_swamping(panel):
+    _, widget, _ = panel("heron-punt")
+    rows = [widget.whatif.item(i, 0).text() for i in range(widget.whatif.rowCount())]
+    assert rows[0] == "as designed" and len(rows) == 5
+    assert "life jackets" in widget.swamp_text.text()
+
+
+def _type_readings(widget, rows):
+    widget.readings.setRowCount(0)
+    for r, values in enumerate(rows):
+        widget.readings.insertRow(r)
+        for c, v in enumerate(values):
+            widget.readings.setItem(r, c, QTableWidgetItem("" if v is None else str(v)))
+
+
+def test_inclining_recovers_a_known_gm(panel):
+    """Readings made from the design's own GM with the wall-sided relation (Barrass &
+    Derrett; REFERENCES §2) give back that GM within the hull's departure from
+    wall-sided over 1-2 degrees."""
+    doc, widget, options = panel("heron-punt")
+    h = analyse(doc.committed).hydrostatics
+    u = options.units
+    rows = []
+    for w, d in ((5.0, 0.3), (5.0, -0.3), (10.0, 0.3), (10.0, -0.3)):
+        t = np.roots([0.5 * h.bm, 0.0, h.gm, -abs(w * d) / h.displacement])
+        tan = min(r.real for r in t if abs(r.imag) < 1e-12 and r.real > 0) * math.copysign(1, d)
+        rows.append((w, u.to_length(d), math.degrees(math.atan(tan)), None, None))
+    _type_readings(widget, rows)
+    widget.weighed.setChecked(True)
+    widget.weighed_box.setValue(u.to_mass(h.displacement))
+    widget.compute_incline()
+    assert widget.incline is not None
+    assert widget.incline.gm == pytest.approx(h.gm, rel=1e-3)
+    assert widget.incline.kg == pytest.approx(h.kg, abs=1e-3)
+    assert widget.incline_apply.isEnabled()
+    widget.incline_apply.click()
+    items = doc.committed.loads.items
+    assert len(items) == 1 and items[0].z == pytest.approx(widget.incline.kg + doc.committed.stations().keel_z)
+    assert doc.committed.loads.materials == ()
+
+
+def test_bad_readings_get_a_message_and_change_nothing(panel):
+    doc, widget, _ = panel("heron-punt")
+    before = doc.committed
+    _type_readings(widget, [(5, 300, None, None, None)])
+    widget.compute_incline()
+    assert "Cannot work it out" in widget.incline_text.text()
+    assert "needs a heel angle" in widget.incline_text.text()
+    _type_readings(widget, [(5, "abc", 1.0, None, None)])
+    widget.compute_incline()
+    assert "'abc' is not a number" in widget.incline_text.text()
+    assert not widget.incline_apply.isEnabled() and doc.committed is before
