@@ -56,7 +56,7 @@ from app.document import HullDocument
 from app.units import UnitSystem
 from app.view_options import ViewOptions
 
-__all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "run_checks"]
+__all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "run_checks", "heel_text", "trim_text", "beam_text", "swamp_text"]
 
 _VERDICT_STATE = {"holds": "stable", "floods": "marginal", "capsizes": "unstable"}
 _VERDICT_WORDS = {"holds": "HOLDS", "floods": "FLOODS FIRST", "capsizes": "CAPSIZES"}
@@ -167,7 +167,48 @@ def _verdict_label() -> QLabel:
     return label
 
 
-def _show_verdict(label: QLabel, check: HeelCheck | None, waiting: str = "") -> None:
+def heel_text(check: HeelCheck, u: UnitSystem) -> str:
+    """The check's verdict in words, lengths in the display units."""
+    if check.verdict == "capsizes" or check.static_heel_deg is None:
+        return "no heel where the boat rights itself against the moment: it capsizes."
+    heel = f"heels to {check.static_heel_deg:.1f}°"
+    if check.verdict == "floods":
+        return f"{heel}, but the gunwale goes under first: an open boat swamps."
+    text = f"{heel} with {u.length_text(check.low_freeboard)} freeboard left on the low side"
+    if check.low_freeboard is not None and check.low_freeboard < checks.MIN_SHIFTED_FREEBOARD_M:
+        text += f", less than the {u.length_text(checks.MIN_SHIFTED_FREEBOARD_M)} suggested"
+    return text + "."
+
+
+def trim_text(t: TrimResult, u: UnitSystem) -> str:
+    if t.x_after is None:
+        return f"Moving {t.what} alone cannot float the boat level (trim now {t.trim_before_deg:+.2f}°)."
+    return (
+        f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
+        f"trim {t.trim_after_deg:+.2f}° (now {t.trim_before_deg:+.2f}°), freeboard aft "
+        f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
+    )
+
+
+def beam_text(b: BeamResult, u: UnitSystem) -> str:
+    if b.factor is None:
+        return f"No beam between 0.3 and 3 times the present one gives GM {u.length_text(b.target_gm)}."
+    return (
+        f"GM reaches {u.length_text(b.gm_after)} at a beam of {u.length_text(b.beam_after)} "
+        f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives {u.length_text(b.gm_before)}."
+    )
+
+
+def swamp_text(r: SwampResult, u: UnitSystem) -> str:
+    head = f"Reserve buoyancy {u.mass_text(r.reserve_mass)} ({100 * r.reserve_fraction:.0f} % of the hull)."
+    if r.floats_swamped is None:
+        return head + " Closed hull: it cannot fill while its deck and seams hold. Still wear life jackets."
+    if r.floats_swamped:
+        return head + " Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
+    return head + " Swamped, the hull sinks: the crew's life jackets are the only flotation - wear them."
+
+
+def _show_verdict(label: QLabel, check: HeelCheck | None, u: UnitSystem, waiting: str = "") -> None:
     if check is None:
         label.setText(waiting or "—")
         label.setStyleSheet("")
@@ -176,7 +217,7 @@ def _show_verdict(label: QLabel, check: HeelCheck | None, waiting: str = "") -> 
     back, ink = style.STATE_COLOURS[state]
     glyph = style.STATE_GLYPHS[state]
     label.setStyleSheet(f"background:{back}; color:{ink}; border-radius:4px;")
-    label.setText(f"<b>{glyph} {_VERDICT_WORDS[check.verdict]}</b><br>{check.message}")
+    label.setText(f"<b>{glyph} {_VERDICT_WORDS[check.verdict]}</b> - {check.title}:<br>{heel_text(check, u)}")
 
 
 class ChecksPanel(QWidget):
@@ -219,9 +260,9 @@ class ChecksPanel(QWidget):
         self.arm_curve = self.static_mark = None
         if gz_plot is not None:
             self.arm_curve = gz_plot.plot(
-                pen=pg.mkPen(style.HANDLE, width=1.5, style=Qt.PenStyle.DashDotLine)
+                pen=pg.mkPen(style.CREW, width=2, style=Qt.PenStyle.DashDotLine)
             )
-            self.static_mark = pg.ScatterPlotItem(size=9, symbol="o", brush=pg.mkBrush(style.HANDLE))
+            self.static_mark = pg.ScatterPlotItem(size=9, symbol="o", brush=pg.mkBrush(style.CREW))
             gz_plot.addItem(self.static_mark)
 
         document.designChanged.connect(self._on_design_changed)
@@ -260,6 +301,8 @@ class ChecksPanel(QWidget):
 
         how = QVBoxLayout()
         how.addWidget(QLabel("Who moves (to starboard):"))
+        note = QLabel("Heeling arm: olive dash-dot line on the GZ plot")
+        note.setStyleSheet(f"color:{style.CREW};")
         how.addWidget(self.movers, 1)
         where = QGroupBox("How far")
         where_layout = QVBoxLayout(where)
@@ -276,6 +319,7 @@ class ChecksPanel(QWidget):
         board.addWidget(QLabel("on the gunwale amidships"))
         board.addStretch(1)
         out = QVBoxLayout()
+        out.addWidget(note)
         out.addWidget(self.shift_verdict)
         out.addWidget(self.shift_detail)
         out.addLayout(board)
@@ -549,16 +593,16 @@ class ChecksPanel(QWidget):
         u = self.options.units
         if r is None:
             return
-        _show_verdict(self.shift_verdict, r.shift, "No crew to move." if not r.design.loads.crew else "")
-        _show_verdict(self.boarding_verdict, r.boarding)
+        _show_verdict(self.shift_verdict, r.shift, u, "No crew to move." if not r.design.loads.crew else "")
+        _show_verdict(self.boarding_verdict, r.boarding, u)
         self.shift_detail.setText(self._shift_detail(r.shift, u))
         self._show_arm(r.shift)
-        self.trim_text.setText(r.trim.message if r.trim else "Add crew or an item to move.")
+        self.trim_text.setText(trim_text(r.trim, u) if r.trim else "Add crew or an item to move.")
         self.trim_apply.setEnabled(bool(r.trim and r.trim.x_after is not None))
-        self.beam_text.setText(r.beam.message if r.beam else "Only for a sketched hull.")
+        self.beam_text.setText(beam_text(r.beam, u) if r.beam else "Only for a sketched hull.")
         self.beam_apply.setEnabled(bool(r.beam and r.beam.factor is not None))
         self._show_whatif(r.sensitivity, u)
-        self.swamp_text.setText(r.swamp.message if r.swamp else "")
+        self.swamp_text.setText(swamp_text(r.swamp, u) if r.swamp else "")
 
     @staticmethod
     def _shift_detail(check: HeelCheck | None, u: UnitSystem) -> str:
@@ -579,6 +623,10 @@ class ChecksPanel(QWidget):
             self.static_mark.setData([], [])
             return
         self.arm_curve.setData(check.heel_deg, check.heeling_arm)
+        (x0, x1), (y0, y1) = self.gz_plot.viewRange()
+        top = float(np.max(check.heeling_arm)) * 1.1
+        if top > y1:  # show the whole heeling arm: it may stand above the GZ curve
+            self.gz_plot.setRange(xRange=(x0, x1), yRange=(y0, top), padding=0)
         if check.static_heel_deg is not None:
             arm = np.interp(check.static_heel_deg, check.heel_deg, check.heeling_arm)
             self.static_mark.setData([check.static_heel_deg], [arm])
