@@ -142,3 +142,12 @@ def test_bad_readings_get_a_message_and_change_nothing(panel):
     widget.compute_incline()
     assert "'abc' is not a number" in widget.incline_text.text()
     assert not widget.incline_apply.isEnabled() and doc.committed is before
+
+
+def test_texts_follow_the_display_units(panel):
+    _, widget, options = panel("drift-lab-raft")
+    assert " mm freeboard" in widget.shift_verdict.text()
+    options.set_units("imperial")
+    assert " in freeboard" in widget.shift_verdict.text() and " mm" not in widget.shift_verdict.text()
+    assert " in from the aft end" in widget.trim_text.text()
+    assert widget.distance_box.suffix() == " in"
