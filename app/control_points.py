@@ -7,10 +7,10 @@ The item never moves itself: it reports where the user wants a point to go
 from __future__ import annotations
 
 import numpy as np
-import pyqtgraph as pg
 from PySide6.QtCore import QPointF, Qt, Signal
 
 from app import style
+from app.markers import Markers, marker_style
 
 __all__ = ["ControlPoints"]
 
@@ -18,8 +18,11 @@ HANDLE_SIZE = 11
 SELECTED_SIZE = 15
 
 
-class ControlPoints(pg.ScatterPlotItem):
+class ControlPoints(Markers):
     """Handles for the control points of one curve, in data coordinates.
+
+    The handle under the mouse, and the selected one, are drawn larger in the
+    selection colour.
 
     Signals
     -------
@@ -33,21 +36,15 @@ class ControlPoints(pg.ScatterPlotItem):
     dragFinished = Signal(int)
 
     def __init__(self, brush: str = style.HANDLE):
-        super().__init__(
-            pxMode=True,
-            size=HANDLE_SIZE,
-            symbol="o",
-            pen=pg.mkPen(style.HANDLE_EDGE, width=1.5),
-            brush=pg.mkBrush(brush),
-            hoverable=True,
-            hoverSize=SELECTED_SIZE,
-            hoverBrush=pg.mkBrush(style.SELECTED),
-            tip=None,
-        )
-        self._brush = pg.mkBrush(brush)
-        self._selected_brush = pg.mkBrush(style.SELECTED)
+        super().__init__()
+        edge = {"color": style.HANDLE_EDGE, "width": 1.5}
+        self._plain = marker_style("o", HANDLE_SIZE, edge, brush)
+        self._marked = marker_style("o", SELECTED_SIZE, edge, style.SELECTED)
+        self._selected: int | None = None
+        self._hovered: int | None = None
         self._drag_index: int | None = None
         self._offset = QPointF()
+        self.setAcceptHoverEvents(True)
         self.setZValue(10)
 
     @property
@@ -56,13 +53,14 @@ class ControlPoints(pg.ScatterPlotItem):
 
     def set_points(self, x: np.ndarray, y: np.ndarray, selected: int | None) -> None:
         """Show handles at (x, y), the ``selected`` one larger and in the selection colour."""
-        n = len(x)
-        sizes = np.full(n, HANDLE_SIZE, dtype=float)
-        brushes = [self._brush] * n
-        if selected is not None and 0 <= selected < n:
-            sizes[selected] = SELECTED_SIZE
-            brushes[selected] = self._selected_brush
-        self.setData(x=np.asarray(x, dtype=float), y=np.asarray(y, dtype=float), size=sizes, brush=brushes)
+        self._selected = selected
+        if self._hovered is not None and self._hovered >= len(x):
+            self._hovered = None
+        self._show(x, y)
+
+    def _show(self, x, y) -> None:
+        marked = {self._selected, self._hovered}
+        self.set_markers(x, y, [self._marked if i in marked else self._plain for i in range(len(x))])
 
     def cancel_drag(self) -> bool:
         """Stop listening to the drag in progress (Esc); True if there was one."""
@@ -71,31 +69,39 @@ class ControlPoints(pg.ScatterPlotItem):
         self.setAcceptHoverEvents(True)
         return was
 
+    def hoverEvent(self, ev) -> None:
+        if self._drag_index is not None:
+            return
+        hovered = None if ev.isExit() else self.index_at(ev.pos())
+        if hovered != self._hovered:
+            self._hovered = hovered
+            self._show(*self.getData())
+
     def mouseClickEvent(self, ev) -> None:
         if ev.button() != Qt.MouseButton.LeftButton:
             ev.ignore()
             return
-        spots = self.pointsAt(ev.pos())
-        if len(spots) == 0:
+        index = self.index_at(ev.pos())
+        if index is None:
             ev.ignore()
             return
         ev.accept()
-        self.pointSelected.emit(int(spots[0].index()))
+        self.pointSelected.emit(index)
 
     def mouseDragEvent(self, ev) -> None:
         if ev.button() != Qt.MouseButton.LeftButton:
             ev.ignore()
             return
         if ev.isStart():
-            spots = self.pointsAt(ev.buttonDownPos())
-            if len(spots) == 0:
+            index = self.index_at(ev.buttonDownPos())
+            if index is None:
                 ev.ignore()
                 return
-            spot = spots[0]
-            self._drag_index = int(spot.index())
-            self._offset = spot.pos() - ev.buttonDownPos()
+            x, y = self.getData()
+            self._drag_index = index
+            self._offset = QPointF(x[index], y[index]) - ev.buttonDownPos()
             self.setAcceptHoverEvents(False)  # no hover repaints while the point follows
-            self.pointSelected.emit(self._drag_index)
+            self.pointSelected.emit(index)
         ev.accept()
         index = self._drag_index
         if index is None:  # cancelled with Esc: swallow the rest of this drag

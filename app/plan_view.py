@@ -17,6 +17,7 @@ from app.control_points import ControlPoints
 from app.document import HullDocument
 from app.drawing import OutlineItem, segments
 from app.editing import EditRefused
+from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
 from app.view_options import ViewOptions
 
@@ -48,9 +49,8 @@ class PlanView(SketchView):
         self.centreline = pg.InfiniteLine(
             pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1, style=Qt.PenStyle.DashDotLine)
         )
-        self.crew = pg.ScatterPlotItem(
-            size=10, symbol="o", pen=pg.mkPen("#ffffff"), brush=pg.mkBrush(style.CREW)
-        )
+        self.crew = Markers()
+        self._seat_style = marker_style("o", 10, "#ffffff", style.CREW)
         for item in (self.outline, self.stations, self.section_marks, self.centreline, self.crew):
             self.plot.addItem(item)
         self.crew.setToolTip("crew seats")
@@ -84,7 +84,7 @@ class PlanView(SketchView):
         marks = np.array([s.x for s in hull.sections])
         self.section_marks.setData(*segments(marks, -np.full(marks.size, reach), marks, np.full(marks.size, reach)))
         crew = self.document.design.loads.crew
-        self.crew.setData(x=[c.x for c in crew], y=[c.y for c in crew])
+        self.crew.set_markers([c.x for c in crew], [c.y for c in crew], [self._seat_style] * len(crew))
         pts = np.asarray(hull.plan.points, dtype=float)
         self.handles.set_points(pts[:, 0], pts[:, 1], self.selected_index("plan"))
 
@@ -95,7 +95,7 @@ class PlanView(SketchView):
         self.outline.set_polygon(np.concatenate([xs, xs[::-1]]), np.concatenate([b, -b[::-1]]))
         self.stations.setData(*segments(xs, -b, xs, b))
         self.section_marks.setData([], [])
-        self.crew.setData(x=[], y=[])
+        self.crew.set_markers([], [], [])
         self.handles.set_points(np.array([]), np.array([]), None)
 
     def extent(self) -> QRectF:

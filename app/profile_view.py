@@ -13,6 +13,7 @@ from app.control_points import ControlPoints
 from app.document import HullDocument
 from app.drawing import OutlineItem, segments
 from app.editing import EditRefused
+from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
 from app.view_options import ViewOptions
 
@@ -44,14 +45,12 @@ class ProfileView(SketchView):
             pen=pg.mkPen(style.STATION_MARK, width=1.5, style=Qt.PenStyle.DashLine), connect="pairs"
         )
         self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
-        self.centres = pg.ScatterPlotItem(pxMode=True)
+        self.centres = Markers()
         self.centres.setZValue(8)
-        self._centre_style = dict(  # G, B
-            symbol=["o", "o"],
-            size=[11, 9],
-            brush=[pg.mkBrush(style.SELECTED), pg.mkBrush("w")],
-            pen=[pg.mkPen("w"), pg.mkPen(style.WATER_LINE, width=2)],
-        )
+        self._centre_styles = [  # G, B
+            marker_style("o", 11, "w", style.SELECTED),
+            marker_style("o", 9, {"color": style.WATER_LINE, "width": 2}, "w"),
+        ]
         self.g_label = pg.TextItem("G", color=style.SELECTED, anchor=(-0.3, 1.0))
         self.b_label = pg.TextItem("B", color=style.WATER_LINE, anchor=(-0.3, 0.0))
         for label in (self.g_label, self.b_label):
@@ -104,7 +103,7 @@ class ProfileView(SketchView):
         if hs is None:
             self.water.clear()
             self.waterline.setData([], [])
-            self.centres.setData([])
+            self.centres.set_markers([], [], [])
             self.g_label.setText("")
             self.b_label.setText("")
             return
@@ -117,7 +116,7 @@ class ProfileView(SketchView):
         w = analysis.weights
         g = (w.lcg, w.vcg)
         b = (hs.lcb, w.vcg - w.kg + hs.kb)
-        self.centres.setData(x=[g[0], b[0]], y=[g[1], b[1]], **self._centre_style)
+        self.centres.set_markers([g[0], b[0]], [g[1], b[1]], self._centre_styles)
         self.g_label.setText("G")
         self.g_label.setPos(*g)
         self.b_label.setText("B")

@@ -23,6 +23,7 @@ from app.control_points import ControlPoints
 from app.document import HullDocument
 from app.drawing import OutlineItem
 from app.editing import EditRefused, PointRef
+from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
 from app.view_options import ViewOptions
 
@@ -73,14 +74,13 @@ class SectionView(SketchView):
         self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
         self.waterline.setZValue(6)
         self.centreline = pg.InfiniteLine(pos=0.0, angle=90, pen=pg.mkPen(style.INK_FAINT, width=1))
-        self.centres = pg.ScatterPlotItem(pxMode=True)
+        self.centres = Markers()
         self.centres.setZValue(8)
-        self._centre_style = dict(  # G, B, M
-            symbol=["o", "o", "t1"],
-            size=[11, 9, 11],
-            brush=[pg.mkBrush(style.SELECTED), pg.mkBrush("w"), pg.mkBrush(style.INK)],
-            pen=[pg.mkPen("w"), pg.mkPen(style.WATER_LINE, width=2), pg.mkPen("w")],
-        )
+        self._centre_styles = [  # G, B, M
+            marker_style("o", 11, "w", style.SELECTED),
+            marker_style("o", 9, {"color": style.WATER_LINE, "width": 2}, "w"),
+            marker_style("t1", 11, "w", style.INK),
+        ]
         self.labels = {name: pg.TextItem(name, color=c, anchor=(-0.4, 0.5)) for name, c in (
             ("G", style.SELECTED), ("B", style.WATER_LINE), ("M", style.INK))}
         for item in (self.water, self.outline, self.body_plan, self.waterline, self.centreline, self.centres):
@@ -230,7 +230,7 @@ class SectionView(SketchView):
         if hs is None:
             self.water.clear()
             self.waterline.setData([], [])
-            self.centres.setData([])
+            self.centres.set_markers([], [], [])
             for label in self.labels.values():
                 label.setText("")
             return
@@ -247,7 +247,7 @@ class SectionView(SketchView):
         keel_z = w.vcg - w.kg
         points = {"G": (w.tcg, w.vcg), "B": (hs.tcb, keel_z + hs.kb), "M": (0.0, keel_z + hs.km)}
         xs, zs = zip(*(points[name] for name in ("G", "B", "M")))
-        self.centres.setData(x=list(xs), y=list(zs), **self._centre_style)
+        self.centres.set_markers(xs, zs, self._centre_styles)
         for name, label in self.labels.items():
             label.setText(name)
             label.setPos(*points[name])
