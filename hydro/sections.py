@@ -251,12 +251,13 @@ def cut(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True)
     xi1 = c * v1[:, 0] + s * v1[:, 1]
     xq = xi0 + (hq - e0) / (e1 - e0) * (xi1 - xi0)
     sign = np.where(up, 1.0, -1.0)
-    # clipped part of the crossing edge, kept in polygon order: (a -> b)
-    a_xi = np.where(up, xi0, xq)
-    a_eta = np.where(up, e0, hq)
-    b_xi = np.where(up, xq, xi1)
-    b_eta = np.where(up, hq, e1)
-    crossp = a_xi * b_eta - b_xi * a_eta
+    # clipped part of the crossing edge, from its underwater vertex v to the crossing
+    # point q, kept in polygon order (v -> q when leaving the water, q -> v entering)
+    v_xi = np.where(up, xi0, xi1)
+    v_eta = np.where(up, e0, e1)
+    crossp = sign * (v_xi * hq - xq * v_eta)
+    sum_xi = v_xi + xq
+    sum_eta = v_eta + hq
     # whole edges under water: +prefix at an up-crossing, -prefix after a down-crossing
     pre = table.prefix_flat[body + (~up)]
     pre *= sign[:, None]
@@ -271,13 +272,13 @@ def cut(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True)
 
     area = gather(crossp / 2 + pre[:, 0] + hx * sign / 2) + first_below * tot[0]
     q_eta = gather(
-        (a_eta + b_eta) * crossp / 6 + (c * pre[:, 2] - s * pre[:, 1]) + sign * hq * hx / 3
+        sum_eta * crossp / 6 + (c * pre[:, 2] - s * pre[:, 1]) + sign * hq * hx / 3
     ) + first_below * tot[2]
     breadth = gather(sx)
     if not full:
         return Cut(area, None, q_eta, breadth, None, None)  # type: ignore[arg-type]
     q_xi = gather(
-        (a_xi + b_xi) * crossp / 6 + (c * pre[:, 1] + s * pre[:, 2]) + sx * hx / 6
+        sum_xi * crossp / 6 + (c * pre[:, 1] + s * pre[:, 2]) + sx * hx / 6
     ) + first_below * tot[1]
     return Cut(
         area=area,
