@@ -16,6 +16,7 @@ from hydro import StabilityCurve
 
 from app import style
 from app.drawing import style_axes
+from app.markers import Markers, marker_style
 from app.units import UnitSystem
 
 __all__ = ["GzPlot", "nice_ceiling", "LEGEND_HTML"]
@@ -78,14 +79,15 @@ class GzPlot(pg.PlotWidget):
         self.addItem(self.beyond_band, ignoreBounds=True)
         self.zero = pg.InfiniteLine(pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1))
         self.addItem(self.zero, ignoreBounds=True)
-        self.wall_sided = self.plot(
-            pen=pg.mkPen(style.WALL_SIDED, width=1.5, style=Qt.PenStyle.DashLine),
-            connect="finite",
+        self.wall_sided = pg.PlotCurveItem(
+            pen=pg.mkPen(style.WALL_SIDED, width=1.5, style=Qt.PenStyle.DashLine), connect="finite"
         )
-        self.beyond_part = self.plot(
-            pen=pg.mkPen(style.INK_FAINT, width=2, style=Qt.PenStyle.DotLine),
+        self.beyond_part = pg.PlotCurveItem(
+            pen=pg.mkPen(style.INK_FAINT, width=2, style=Qt.PenStyle.DotLine), connect="finite"
         )
-        self.open_part = self.plot(pen=pg.mkPen(style.GZ_LINE, width=2.5))
+        self.open_part = pg.PlotCurveItem(pen=pg.mkPen(style.GZ_LINE, width=2.5), connect="finite")
+        for item in (self.wall_sided, self.beyond_part, self.open_part):
+            self.addItem(item)
         self.gunwale_line = pg.InfiniteLine(
             angle=90,
             pen=pg.mkPen(style.WATER_LINE, width=1.5),
@@ -93,9 +95,12 @@ class GzPlot(pg.PlotWidget):
             labelOpts={"position": 0.12, "color": style.WATER_LINE, "anchors": [(0, 0), (0, 0)]},
         )
         self.addItem(self.gunwale_line, ignoreBounds=True)
-        self.peak = pg.ScatterPlotItem(size=9, symbol="d", brush=pg.mkBrush(style.GZ_LINE), pen=pg.mkPen("w"))
+        self.peak = Markers()
+        self._peak_style = marker_style("d", 9, "w", style.GZ_LINE)
         self.addItem(self.peak)
         self._units: UnitSystem | None = None
+        self._label_side: tuple[int, int] | None = None
+        self._span: tuple[float, float, float] | None = None  # heel range end, GZ bottom and top
 
     def set_units(self, units: UnitSystem) -> None:
         self._units = units
@@ -103,12 +108,16 @@ class GzPlot(pg.PlotWidget):
         axis.setScale(units.length_factor)
         self.setLabel("left", f"GZ ({units.length})", color=style.INK)
 
-    def show_curve(self, curve: StabilityCurve | None) -> None:
-        """Draw ``curve`` (None clears the plot)."""
+    def show_curve(self, curve: StabilityCurve | None, steady: bool = False) -> None:
+        """Draw ``curve`` (None clears the plot).
+
+        With ``steady`` (live previews during a drag) the GZ range only grows, so the
+        axes and grid are redrawn only when the curve would leave the plot.
+        """
         if curve is None:
             for item in (self.open_part, self.beyond_part, self.wall_sided):
                 item.setData([], [])
-            self.peak.setData([], [])
+            self.peak.set_markers([], [], [])
             self.gunwale_line.hide()
             self.beyond_band.hide()
             return
@@ -124,10 +133,12 @@ class GzPlot(pg.PlotWidget):
         low = min(float(finite.min()) if finite.size else 0.0, 0.0)
         # deep negative arms (far past the gunwale) may leave the plot: keep the top readable
         bottom = -min(nice_ceiling(-low * 1.15), top) if low < 0 else -0.08 * top
-        self.open_part.setData(heel[:split], gz[:split], connect="finite")
+        if steady and self._span is not None and self._span[0] == last:
+            bottom, top = min(bottom, self._span[1]), max(top, self._span[2])
+        self.open_part.setData(heel[:split], gz[:split])
         start = max(split - 1, 0)
-        self.beyond_part.setData(heel[start:], gz[start:], connect="finite")
-        self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top), connect="finite")
+        self.beyond_part.setData(heel[start:], gz[start:])
+        self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top))
         if gunwale is None:
             self.gunwale_line.hide()
             self.beyond_band.hide()
@@ -135,13 +146,18 @@ class GzPlot(pg.PlotWidget):
             self.gunwale_line.setValue(gunwale)
             # label on whichever side of the line has room
             side = (1, 0) if gunwale > 0.6 * last else (0, 0)
-            self.gunwale_line.label.anchors = [side, side]
-            self.gunwale_line.label.updatePosition()
+            if side != self._label_side:
+                self._label_side = side
+                self.gunwale_line.label.anchors = [side, side]
+                self.gunwale_line.label.updatePosition()
             self.gunwale_line.show()
             self.beyond_band.setRegion((gunwale, last))
             self.beyond_band.show()
         if math.isfinite(curve.max_gz):
-            self.peak.setData([curve.max_gz_deg], [curve.max_gz])
+            self.peak.set_markers([curve.max_gz_deg], [curve.max_gz], [self._peak_style])
         else:
-            self.peak.setData([], [])
-        self.setRange(xRange=(0.0, last), yRange=(bottom, top), padding=0.02)
+            self.peak.set_markers([], [], [])
+        span = (last, bottom, top)
+        if not (steady and span == self._span):
+            self._span = span
+            self.setRange(xRange=(0.0, last), yRange=(bottom, top), padding=0.02)

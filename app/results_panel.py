@@ -226,7 +226,7 @@ class ResultsPanel(QWidget):
         state = "none" if hs is None else gm_state(hs.gm, hs.bwl)
         self._show_state(state)
         self._show_status(analysis)
-        self.gz_plot.show_curve(analysis.curve)
+        self.gz_plot.show_curve(analysis.curve, steady=self.document.analysis_is_rough)
         if self.document.analysis_is_rough:
             self.quality.setText(
                 f"Rough figures while dragging ({ROUGH_STATION_COUNT} stations, "
