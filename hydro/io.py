@@ -324,13 +324,12 @@ def design_from_dict(data: Any) -> Design:
     return design
 
 
-def load_design(path: str | os.PathLike[str]) -> Design:
-    """Read and check a design file."""
-    p = Path(path)
+def _read_text(p: Path) -> str:
+    """A file's text, or DesignFileError saying plainly why not."""
     try:
         if p.stat().st_size > MAX_FILE_BYTES:
-            raise DesignFileError(f"{p.name}: too large to be a design file")
-        text = p.read_text(encoding="utf-8")
+            raise DesignFileError(f"{p.name}: too large for this kind of file")
+        return p.read_text(encoding="utf-8")
     except FileNotFoundError:
         raise DesignFileError(f"{p}: no such file") from None
     except IsADirectoryError:
@@ -339,6 +338,12 @@ def load_design(path: str | os.PathLike[str]) -> Design:
         raise DesignFileError(f"{p.name}: not a text file") from None
     except OSError as e:
         raise DesignFileError(f"{p}: cannot read ({e.strerror})") from None
+
+
+def load_design(path: str | os.PathLike[str]) -> Design:
+    """Read and check a design file."""
+    p = Path(path)
+    text = _read_text(p)
     try:
         data = json.loads(text)
     except json.JSONDecodeError as e:
@@ -375,12 +380,7 @@ def read_offsets(path: str | os.PathLike[str]) -> Stations:
     to the gunwale.  Lines starting with '#' and one header row are skipped.
     """
     p = Path(path)
-    try:
-        text = p.read_text(encoding="utf-8")
-    except FileNotFoundError:
-        raise DesignFileError(f"{p}: no such file") from None
-    except (UnicodeDecodeError, IsADirectoryError):
-        raise DesignFileError(f"{p.name}: not a text file") from None
+    text = _read_text(p)
     groups: list[tuple[float, list[tuple[float, float]]]] = []
     for n, row in enumerate(csv.reader(io.StringIO(text)), start=1):
         if not row or not "".join(row).strip() or row[0].lstrip().startswith("#"):
@@ -508,12 +508,7 @@ def read_incline_readings(path: str | os.PathLike[str]) -> list[Any]:
     from hydro.checks import InclineReading
 
     p = Path(path)
-    try:
-        text = p.read_text(encoding="utf-8")
-    except FileNotFoundError:
-        raise DesignFileError(f"{p}: no such file") from None
-    except (UnicodeDecodeError, IsADirectoryError):
-        raise DesignFileError(f"{p.name}: not a text file") from None
+    text = _read_text(p)
     rows = [r for r in csv.reader(io.StringIO(text)) if r and not r[0].lstrip().startswith("#")]
     if not rows:
         raise DesignFileError(f"{p.name}: no readings")
