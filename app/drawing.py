@@ -4,13 +4,13 @@ from __future__ import annotations
 
 import numpy as np
 import pyqtgraph as pg
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainterPath
-from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem, QGraphicsRectItem
 
 from app import style
 
-__all__ = ["OutlineItem", "segments", "polygon_path", "style_axes"]
+__all__ = ["OutlineItem", "VerticalBand", "segments", "polygon_path", "style_axes"]
 
 
 def style_axes(plot: pg.PlotWidget) -> None:
@@ -59,3 +59,26 @@ class OutlineItem(QGraphicsPathItem):
 
     def clear(self) -> None:
         self.setPath(QPainterPath())
+
+
+class VerticalBand(QGraphicsRectItem):
+    """A shaded band between two x values, reaching far past any plotted y (no outline).
+
+    A filled rectangle drawn by Qt alone: unlike pyqtgraph's LinearRegionItem it runs
+    no Python when it is moved or painted.
+    """
+
+    REACH = 1e3
+
+    def __init__(self, fill: str | tuple):
+        super().__init__()
+        self.setPen(pg.mkPen(None))
+        self.setBrush(pg.mkBrush(fill))
+        self._region = (0.0, 0.0)
+
+    def setRegion(self, region: tuple[float, float]) -> None:
+        x0, x1 = self._region = (float(region[0]), float(region[1]))
+        self.setRect(QRectF(x0, -self.REACH, x1 - x0, 2 * self.REACH))
+
+    def getRegion(self) -> tuple[float, float]:
+        return self._region

@@ -15,7 +15,7 @@ from PySide6.QtCore import Qt
 from hydro import StabilityCurve
 
 from app import style
-from app.drawing import style_axes
+from app.drawing import VerticalBand, style_axes
 from app.markers import Markers, marker_style
 from app.units import UnitSystem
 
@@ -72,9 +72,7 @@ class GzPlot(pg.PlotWidget):
         self.setMinimumHeight(200)
         style_axes(self)
         self.setLabel("bottom", "heel (°)", color=style.INK)
-        self.beyond_band = pg.LinearRegionItem(
-            orientation="vertical", movable=False, brush=pg.mkBrush(style.NOT_AVAILABLE_FILL), pen=pg.mkPen(None)
-        )
+        self.beyond_band = VerticalBand(style.NOT_AVAILABLE_FILL)
         self.beyond_band.setZValue(-10)
         self.addItem(self.beyond_band, ignoreBounds=True)
         self.zero = pg.InfiniteLine(pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1))
