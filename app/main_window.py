@@ -136,7 +136,7 @@ class MainWindow(QMainWindow):
 
         self.cursor_label = QLabel()
         self.cursor_label.setFont(style.figure_font())
-        self.cursor_label.setMinimumWidth(300)
+        self.cursor_label.setFixedSize(300, self.cursor_label.fontMetrics().height())  # no relayout per move
         self.statusBar().addPermanentWidget(self.cursor_label)
         for view in self.views:
             view.cursorMoved.connect(self.cursor_label.setText)

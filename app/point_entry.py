@@ -81,8 +81,10 @@ class PointEntry(QWidget):
         a, b = editing.point_position(hull, ref)
         for box, metres in ((self.first, a), (self.second, b)):
             with QSignalBlocker(box):
-                box.setDecimals(units.length_decimals)
-                box.setSuffix(f" {units.length}")
+                if box.decimals() != units.length_decimals:  # each set re-lays out the row
+                    box.setDecimals(units.length_decimals)
+                if box.suffix() != f" {units.length}":
+                    box.setSuffix(f" {units.length}")
                 box.setValue(units.to_length(metres))
 
     def _apply(self) -> None:

@@ -164,7 +164,7 @@ class ResultsPanel(QWidget):
             value = QLabel("—")
             value.setFont(figures)
             value.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
-            value.setMinimumWidth(width)
+            value.setFixedSize(width, value.sizeHint().height())  # new figures never re-lay out the panel
             value.setToolTip(row.tip)
             unit = QLabel()
             unit.setMinimumWidth(self.fontMetrics().horizontalAdvance("mm  "))

@@ -48,6 +48,7 @@ class SectionView(SketchView):
         self.station_box.setKeyboardTracking(False)
         self.station_box.setRange(-1e5, 1e5)
         self.station_box.setToolTip("Station of this shape (length from the aft end)")
+        self.station_box.setPrefix("at x = ")
         self.station_box.editingFinished.connect(self._on_station_typed)
         self.smooth_box = QCheckBox("smooth")
         self.smooth_box.setToolTip("Smooth curve through the points, or hard chines (straight panels)")
@@ -178,9 +179,10 @@ class SectionView(SketchView):
                 self.shape_box.addItems([f"shape {i + 1} of {n}" for i in range(n)])
             self.shape_box.setCurrentIndex(self.shape_index)
         with QSignalBlocker(self.station_box):
-            self.station_box.setDecimals(units.length_decimals)
-            self.station_box.setSuffix(f" {units.length}")
-            self.station_box.setPrefix("at x = ")
+            if self.station_box.decimals() != units.length_decimals:  # each set re-lays out the header
+                self.station_box.setDecimals(units.length_decimals)
+            if self.station_box.suffix() != f" {units.length}":
+                self.station_box.setSuffix(f" {units.length}")
             self.station_box.setValue(units.to_length(sketch.sections[self.shape_index].x))
         with QSignalBlocker(self.smooth_box):
             self.smooth_box.setChecked(sketch.sections[self.shape_index].smooth)
