@@ -93,7 +93,19 @@ def analyse_stations(
     settings: AnalysisSettings = AnalysisSettings(),
     table: SectionTable | None = None,
 ) -> Analysis:
-    """Weight build-up, upright hydrostatics and the GZ curve for a table of offsets."""
+    """Weight build-up, upright hydrostatics and the GZ curve for a table of offsets.
+
+    Examples
+    --------
+    A 4 m x 1 m box barge carrying 400 kg floats at T = 0.1 m with BM = B^2/(12 T):
+
+    >>> from hydro.analytic import box
+    >>> from hydro.loads import MassItem
+    >>> load = Loads(items=(MassItem("load", 400.0, 2.0, 0.0, 0.2),))
+    >>> a = analyse_stations(box(4.0, 1.0, 0.5), load, 1000.0)
+    >>> round(a.hydrostatics.draft_mid, 6), round(a.hydrostatics.bm, 6), a.status
+    (0.1, 0.833333, 'ok')
+    """
     table = table or build_section_table(stations)
     panels = shell_panels(stations) if loads.materials else None
     weights = weight_build_up(loads, stations, rho, panels)
