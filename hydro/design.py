@@ -103,7 +103,7 @@ def analyse_stations(
     >>> from hydro.loads import MassItem
     >>> load = Loads(items=(MassItem("load", 400.0, 2.0, 0.0, 0.2),))
     >>> a = analyse_stations(box(4.0, 1.0, 0.5), load, 1000.0)
-    >>> round(a.hydrostatics.draft_mid, 6), round(a.hydrostatics.bm, 6), a.status
+    >>> round(float(a.hydrostatics.draft_mid), 6), round(a.hydrostatics.bm, 6), a.status
     (0.1, 0.833333, 'ok')
     """
     table = table or build_section_table(stations)
