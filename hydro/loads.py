@@ -11,6 +11,7 @@ import math
 from dataclasses import dataclass, field
 
 import numpy as np
+import shapely
 from numpy.typing import NDArray
 
 from hydro.errors import LoadError
@@ -159,7 +160,11 @@ class WeightSummary:
     mass : total displacement mass Delta (kg)
     lcg, tcg, vcg : centre of gravity (m, hull coordinates)
     kg : height of G above K, the lowest point of the hull (m)
-    free_surface_moment : rho_l * i of loose water (kg m), so FSC = this / Delta (m)
+    free_surface_moment : rho_l * i of loose water (kg m), so FSC = this / Delta (m);
+        i is taken about each separate pool's own centre line (water in twin pontoons
+        cannot run from one to the other)
+    loose_water_pools : how many separate pools the loose water's surface forms at a
+        station (0: none; 1: one pool that runs to the low side as the boat heels)
     """
 
     lines: tuple[WeightLine, ...]
@@ -169,6 +174,7 @@ class WeightSummary:
     vcg: float
     kg: float
     free_surface_moment: float = 0.0
+    loose_water_pools: int = 0
 
     @property
     def fsc(self) -> float:
@@ -252,6 +258,25 @@ def shell_panels(stations: Stations) -> ShellPanels:
     return ShellPanels(np.concatenate(areas), np.vstack(cents), np.concatenate(kinds))
 
 
+def _free_surface(stations: Stations, level: float) -> tuple[FloatArray, int]:
+    """(S,) second moment of the water surface at ``level`` about each pool's own centre
+    (sum of L^3/12 over the pieces of the waterline at each station), and the largest
+    number of pieces at any station."""
+    own = np.zeros(stations.x.size)
+    most = 0
+    line = shapely.LineString([(-1e4, level), (1e4, level)])
+    for i, h in enumerate(stations.half_sections):
+        if np.max(h[:, 0]) <= 0:
+            continue
+        ring = np.vstack([h, h[::-1] * [-1.0, 1.0]])
+        surface = shapely.intersection(shapely.Polygon(ring), line)
+        lengths = shapely.length(shapely.get_parts(surface))
+        lengths = lengths[lengths > 1e-12]
+        own[i] = float(np.sum(lengths**3) / 12.0)
+        most = max(most, int(lengths.size))
+    return own, most
+
+
 def _keel_height_at(stations: Stations, x: float) -> float:
     low = np.array([np.min(h[:, 1]) for h in stations.half_sections])
     return float(np.interp(x, stations.x, low))
@@ -329,6 +354,7 @@ def weight_build_up(
                 cen = np.zeros(3)
             lines.append(WeightLine(m.name, "material", mass, *map(float, cen)))
     fs_moment = 0.0
+    pieces = 0
     if loads.bilge_water_depth > 0:
         level = stations.keel_z + loads.bottom_thickness + loads.bilge_water_depth
         table = build_section_table(stations)
@@ -341,16 +367,17 @@ def weight_build_up(
                     "bilge water",
                     "water",
                     rho * vol,
-                    float((c.area[0] * table.x) @ table.weights / vol),
+                    float(c.area[0] @ table.weights_x / vol),
                     float(c.q_xi[0] @ table.weights / vol),
                     float(c.q_eta[0] @ table.weights / vol),
                 )
             )
-            fs_moment = rho * float(c.breadth_m2[0] @ table.weights)
+            own, pieces = _free_surface(stations, level)
+            fs_moment = rho * float(own @ table.weights)
     mass = sum(line.mass for line in lines)
     if not mass > 0:
         raise LoadError("nothing is aboard: add crew, materials or items with mass")
     lcg = sum(line.mass * line.x for line in lines) / mass
     tcg = sum(line.mass * line.y for line in lines) / mass
     vcg = sum(line.mass * line.z for line in lines) / mass
-    return WeightSummary(tuple(lines), mass, lcg, tcg, vcg, vcg - stations.keel_z, fs_moment)
+    return WeightSummary(tuple(lines), mass, lcg, tcg, vcg, vcg - stations.keel_z, fs_moment, pieces)

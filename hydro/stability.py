@@ -300,10 +300,16 @@ def _crossings(heel: FloatArray, f: FloatArray, rising: bool) -> list[float]:
 def _loose_water_shift(
     table: SectionTable, frame: HeelFrame, weights: WeightSummary, rho: float, tau: FloatArray
 ) -> FloatArray:
-    """(A,) loss of GZ from loose water flowing to the low side (m)."""
+    """(A,) loss of GZ from loose water flowing to the low side (m).
+
+    One pool: solved as a moving weight.  Several separate pools (twin pontoons): the
+    free-surface correction FSC sin(phi), with each pool about its own centre.
+    """
     water = [line for line in weights.lines if line.kind == "water"]
     if not water:
         return np.zeros(frame.phi.size)
+    if weights.loose_water_pools > 1:
+        return weights.fsc * frame.sin
     w = water[0]
     volume = w.mass / rho
     h0 = np.nan_to_num(level_waterline(table, frame, volume))

@@ -232,3 +232,24 @@ def test_density_change_sinks_deeper():
     fresh = run(st, 300.0, 1.5, 0.2, np.array([0.0]), rho=998.2)
     sea = run(st, 300.0, 1.5, 0.2, np.array([0.0]), rho=1025.0)
     assert fresh.hydrostatics.volume / sea.hydrostatics.volume == pytest.approx(1025.0 / 998.2)
+
+
+def test_separate_pools_each_about_their_own_centre():
+    """Water in two pontoons cannot flow across: each pool's free surface counts about
+    its own centre line, i = l b^3 / 12 per pool (B&D FSE chapter: separate tanks; a
+    tank split lengthwise into n loses FSC/n^2).  Here: two pools 0.3 m wide."""
+    from hydro import Stations
+
+    L, depth = 3.0, 0.05
+    half = np.array([[0.0, 0.4], [0.5, 0.4], [0.5, 0.0], [0.8, 0.0], [0.8, 0.45]])
+    st = Stations(np.array([0.0, L]), (half, half))
+    loads = Loads(items=(MassItem("deck load", 150.0, L / 2, 0.0, 0.5),), bilge_water_depth=depth)
+    a = analyse_stations(st, loads, RHO, AnalysisSettings(1.0, 10.0))
+    w = a.weights
+    assert w.loose_water_pools == 2
+    assert w.fsc == pytest.approx(RHO * L * 2 * 0.3**3 / 12 / w.mass, rel=1e-9)
+    assert a.curve.gz[5] == pytest.approx(
+        analyse_stations(st, Loads(items=loads.items + (MassItem("water", RHO * L * 0.6 * depth, L / 2, 0.0, depth / 2),)),
+                         RHO, AnalysisSettings(1.0, 10.0)).curve.gz[5] - w.fsc * math.sin(math.radians(5)),
+        abs=1e-9,
+    )
