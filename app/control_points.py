@@ -60,7 +60,8 @@ class ControlPoints(Markers):
 
     def _show(self, x, y) -> None:
         marked = {self._selected, self._hovered}
-        self.set_markers(x, y, [self._marked if i in marked else self._plain for i in range(len(x))])
+        styles = [self._marked if i in marked else self._plain for i in range(len(x))]
+        self.set_markers(x, y, styles)
 
     def cancel_drag(self) -> bool:
         """Stop listening to the drag in progress (Esc); True if there was one."""

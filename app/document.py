@@ -23,6 +23,7 @@ from __future__ import annotations
 
 from collections import OrderedDict
 from dataclasses import replace
+from functools import lru_cache
 from pathlib import Path
 
 from PySide6.QtCore import QObject, QTimer, Signal
@@ -100,7 +101,13 @@ def _presampled(sketch: HullSketch) -> HullSketch:
     The engine samples a smooth shape again at every station; sampling it once gives
     the same stations for a single shape and nearly the same where shapes blend.
     """
-    sections = tuple(
+    return replace(sketch, sections=_sampled_sections(sketch.sections))
+
+
+@lru_cache(maxsize=8)
+def _sampled_sections(sections: tuple[SectionShape, ...]) -> tuple[SectionShape, ...]:
+    """Smooth shapes as sampled polylines (cached: most drags leave the sections alone)."""
+    return tuple(
         replace(
             s,
             points=tuple(map(tuple, sample_polyline(s.points, True, SMOOTH_SAMPLES_PER_SPAN))),
@@ -108,9 +115,8 @@ def _presampled(sketch: HullSketch) -> HullSketch:
         )
         if s.smooth
         else s
-        for s in sketch.sections
+        for s in sections
     )
-    return replace(sketch, sections=sections)
 
 
 def rough_analysis(design: Design) -> Analysis:

@@ -48,7 +48,7 @@ class Markers(pg.GraphicsObject):
         self._bounds: QRectF | None = None
 
     def set_markers(self, x, y, styles: list[MarkerStyle]) -> None:
-        """Show a marker in ``styles[i]`` at (x[i], y[i]); nothing happens if that is shown already."""
+        """Show a marker in ``styles[i]`` at (x[i], y[i]); nothing to do if already shown."""
         x = np.asarray(x, dtype=float)
         y = np.asarray(y, dtype=float)
         if (

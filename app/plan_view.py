@@ -84,7 +84,8 @@ class PlanView(SketchView):
         marks = np.array([s.x for s in hull.sections])
         self.section_marks.setData(*segments(marks, -np.full(marks.size, reach), marks, np.full(marks.size, reach)))
         crew = self.document.design.loads.crew
-        self.crew.set_markers([c.x for c in crew], [c.y for c in crew], [self._seat_style] * len(crew))
+        seats = [self._seat_style] * len(crew)
+        self.crew.set_markers([c.x for c in crew], [c.y for c in crew], seats)
         pts = np.asarray(hull.plan.points, dtype=float)
         self.handles.set_points(pts[:, 0], pts[:, 1], self.selected_index("plan"))
 

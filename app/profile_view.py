@@ -6,7 +6,7 @@ import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QRectF, Qt
 
-from hydro import Analysis, HullSketch, Stations
+from hydro import Analysis, Stations
 
 from app import editing, style
 from app.control_points import ControlPoints
@@ -37,6 +37,7 @@ class ProfileView(SketchView):
             "Profile",
             "keel and sheer lines",
         )
+        self._extent_cache: tuple = (None, QRectF())
         self.water = OutlineItem(None, 0.0, style.WATER_FILL)
         self.water.setZValue(-5)
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
@@ -124,14 +125,17 @@ class ProfileView(SketchView):
 
     def extent(self) -> QRectF:
         hull = self.document.design.hull
-        if isinstance(hull, HullSketch):
+        if isinstance(hull, Stations):
+            x0, x1 = float(hull.x[0]), float(hull.x[-1])
+            low, top = hull.keel_z, float(hull.gunwale[:, 1].max())
+            return QRectF(x0, low, x1 - x0, max(top - low, 0.05))
+        key = (hull.x_range, hull.keel, hull.sheer)  # a plan drag leaves these as they were
+        if key != self._extent_cache[0]:
             x0, x1 = hull.x_range
             xs = np.linspace(x0, x1, _SAMPLES)
             low, top = float(hull.keel(xs).min()), float(hull.sheer(xs).max())
-        else:
-            x0, x1 = float(hull.x[0]), float(hull.x[-1])
-            low, top = hull.keel_z, float(hull.gunwale[:, 1].max())
-        return QRectF(x0, low, x1 - x0, max(top - low, 0.05))
+            self._extent_cache = (key, QRectF(x0, low, x1 - x0, max(top - low, 0.05)))
+        return QRectF(self._extent_cache[1])
 
     def insert_at(self, x: float, y: float) -> None:
         sketch = self.sketch()

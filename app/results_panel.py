@@ -164,7 +164,7 @@ class ResultsPanel(QWidget):
             value = QLabel("—")
             value.setFont(figures)
             value.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
-            value.setFixedSize(width, value.sizeHint().height())  # new figures never re-lay out the panel
+            value.setFixedSize(width, value.sizeHint().height())  # no relayout for new figures
             value.setToolTip(row.tip)
             unit = QLabel()
             unit.setMinimumWidth(self.fontMetrics().horizontalAdvance("mm  "))

@@ -41,6 +41,7 @@ class SectionView(SketchView):
     def __init__(self, document: HullDocument, options: ViewOptions):
         super().__init__(document, options, "Section", "true scale, looking forward")
         self.shape_index = 0
+        self._frame_cache: tuple = (None, -1, (0.0, 0.0, 0.0))
         self.shape_box = QComboBox()
         self.shape_box.setToolTip("Which section shape to edit")
         self.shape_box.currentIndexChanged.connect(self._on_shape_chosen)
@@ -187,12 +188,20 @@ class SectionView(SketchView):
         with QSignalBlocker(self.smooth_box):
             self.smooth_box.setChecked(sketch.sections[self.shape_index].smooth)
 
+    def _frame(self, hull: HullSketch, index: int) -> tuple[float, float, float]:
+        """The shape's station frame (b, k, d), worked out once per design on screen."""
+        cached_hull, cached_index, frame = self._frame_cache
+        if cached_hull is not hull or cached_index != index:
+            frame = editing.section_frame(hull, index)
+            self._frame_cache = (hull, index, frame)
+        return frame
+
     def drawing_key(self) -> tuple:
         hull = self.document.design.hull
         if isinstance(hull, Stations):
             return (id(hull),)
         index = min(self.shape_index, len(hull.sections) - 1)
-        frame = editing.section_frame(hull, index)
+        frame = self._frame(hull, index)
         return (index, hull.sections, frame, self.document.selection)
 
     def redraw(self) -> None:
@@ -203,7 +212,7 @@ class SectionView(SketchView):
         self.shape_index = min(self.shape_index, len(hull.sections) - 1)
         self._update_header(hull)
         shape = hull.sections[self.shape_index]
-        b, k, d = editing.section_frame(hull, self.shape_index)
+        b, k, d = self._frame(hull, self.shape_index)
         uv = sample_polyline(np.asarray(shape.points, dtype=float), shape.smooth, SMOOTH_SAMPLES_PER_SPAN)
         y, z = uv[:, 0] * b, k + uv[:, 1] * d
         self.outline.set_polygon(np.concatenate([y, -y[::-1]]), np.concatenate([z, z[::-1]]))
@@ -258,7 +267,7 @@ class SectionView(SketchView):
         hull = self.document.design.hull
         if isinstance(hull, HullSketch):
             index = min(self.shape_index, len(hull.sections) - 1)
-            b, k, d = editing.section_frame(hull, index)
+            b, k, d = self._frame(hull, index)
             b = max(b * max(1.0, max(p[0] for p in hull.sections[index].points)), 0.05)
             return QRectF(-b, k, 2 * b, max(d, 0.05))
         b = hull.max_half_breadth
