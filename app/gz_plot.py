@@ -106,11 +106,12 @@ class GzPlot(pg.PlotWidget):
         axis.setScale(units.length_factor)
         self.setLabel("left", f"GZ ({units.length})", color=style.INK)
 
-    def show_curve(self, curve: StabilityCurve | None, steady: bool = False) -> None:
+    def show_curve(self, curve: StabilityCurve | None, steady: bool = False, open_boat: bool = True) -> None:
         """Draw ``curve`` (None clears the plot).
 
         With ``steady`` (live previews during a drag) the GZ range only grows, so the
-        axes and grid are redrawn only when the curve would leave the plot.
+        axes and grid are redrawn only when the curve would leave the plot.  A closed
+        (decked, sealed) hull keeps its whole curve: no band past the gunwale.
         """
         if curve is None:
             for item in (self.open_part, self.beyond_part, self.wall_sided):
@@ -122,7 +123,7 @@ class GzPlot(pg.PlotWidget):
         heel, gz = curve.heel_deg, curve.gz
         last = float(heel[-1])
         gunwale = curve.gunwale_immersion_deg
-        if gunwale is None:
+        if gunwale is None or not open_boat:
             split = heel.size
         else:
             split = int(np.searchsorted(heel, gunwale, side="right"))
@@ -150,7 +151,7 @@ class GzPlot(pg.PlotWidget):
                 self.gunwale_line.label.updatePosition()
             self.gunwale_line.show()
             self.beyond_band.setRegion((gunwale, last))
-            self.beyond_band.show()
+            self.beyond_band.setVisible(open_boat)
         if math.isfinite(curve.max_gz):
             self.peak.set_markers([curve.max_gz_deg], [curve.max_gz], [self._peak_style])
         else:

@@ -11,6 +11,7 @@ from dataclasses import replace
 
 from PySide6.QtCore import QSignalBlocker, Qt
 from PySide6.QtWidgets import (
+    QCheckBox,
     QComboBox,
     QDoubleSpinBox,
     QFormLayout,
@@ -161,9 +162,16 @@ class LoadEditor(QWidget):
         self.wet_box.setSingleStep(0.1)
         self.wet_box.setToolTip("Multiplies every material mass: 1.0 dry; soaked cardboard 1.5 or more")
         self.wet_box.editingFinished.connect(self._on_wet_typed)
+        self.open_box = QCheckBox("open boat: it floods when the gunwale goes under")
+        self.open_box.setToolTip(
+            "Untick for a closed hull (decked, or sealed pontoons): its righting-arm curve "
+            "then goes on past the gunwale"
+        )
+        self.open_box.toggled.connect(self._on_open_toggled)
         tab = QWidget()
         form = QFormLayout(tab)
         form.addRow("Design name", self.name_edit)
+        form.addRow("Hull", self.open_box)
         form.addRow("Water", self.water_box)
         form.addRow("Density", self.density_box)
         form.addRow("Bottom thickness", self.bottom_box)
@@ -208,6 +216,8 @@ class LoadEditor(QWidget):
                 box.setValue(units.to_length(metres))
         with QSignalBlocker(self.wet_box):
             self.wet_box.setValue(loads.wet_factor)
+        with QSignalBlocker(self.open_box):
+            self.open_box.setChecked(design.settings.open_boat)
 
     def show_totals(self, analysis: Analysis) -> None:
         """Mass by kind from the weight build-up."""
@@ -278,6 +288,14 @@ class LoadEditor(QWidget):
         shown = round(units.to_length(getattr(self.document.committed.loads, field)), box.decimals())
         if box.value() != shown:  # leaving the box unchanged is not an edit
             self._edit_loads(f"Edit {field.replace('_', ' ')}", **{field: units.from_length(box.value())})
+
+    def _on_open_toggled(self, on: bool) -> None:
+        design = self.document.committed
+        if design.settings.open_boat != on:
+            self._edit(
+                replace(design, settings=replace(design.settings, open_boat=on)),
+                "Open boat" if on else "Closed hull",
+            )
 
     def _on_wet_typed(self) -> None:
         if self.wet_box.value() != round(self.document.committed.loads.wet_factor, self.wet_box.decimals()):

@@ -226,7 +226,11 @@ class ResultsPanel(QWidget):
         state = "none" if hs is None else gm_state(hs.gm, hs.bwl)
         self._show_state(state)
         self._show_status(analysis)
-        self.gz_plot.show_curve(analysis.curve, steady=self.document.analysis_is_rough)
+        self.gz_plot.show_curve(
+            analysis.curve,
+            steady=self.document.analysis_is_rough,
+            open_boat=self.document.design.settings.open_boat,
+        )
         if self.document.analysis_is_rough:
             self.quality.setText(
                 f"Rough figures while dragging ({ROUGH_STATION_COUNT} stations, "

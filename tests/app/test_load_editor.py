@@ -93,3 +93,25 @@ def test_water_choice(editor):
     widget.water_box.setCurrentIndex(widget.water_box.findData("other density"))
     assert widget.density_box.isEnabled()
     assert doc.committed.water == pytest.approx(1025.0)
+
+
+def test_closed_hull_switch_is_one_undo_step_and_keeps_the_curve(qtbot):
+    from app.gz_plot import GzPlot
+
+    doc = HullDocument(sample("drift-lab-raft"))
+    widget = LoadEditor(doc, ViewOptions())
+    qtbot.addWidget(widget)
+    assert not widget.open_box.isChecked()  # the raft's pontoons are sealed
+    widget.open_box.setChecked(True)
+    assert doc.committed.settings.open_boat and doc.undo_stack.count() == 1
+    doc.undo_stack.undo()
+    assert not doc.committed.settings.open_boat and not widget.open_box.isChecked()
+    plot = GzPlot()
+    qtbot.addWidget(plot)
+    curve = analyse(doc.committed).curve
+    plot.show_curve(curve, open_boat=False)
+    x, _ = plot.open_part.getData()
+    assert len(x) == curve.heel_deg.size and not plot.beyond_band.isVisible()
+    plot.show_curve(curve, open_boat=True)
+    x, _ = plot.open_part.getData()
+    assert x[-1] <= curve.gunwale_immersion_deg + 1.0 and plot.beyond_band.isVisible()
