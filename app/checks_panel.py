@@ -53,6 +53,7 @@ from hydro.checks import (
 
 from app import style
 from app.document import HullDocument
+from app.markers import Markers, marker_style
 from app.units import UnitSystem
 from app.view_options import ViewOptions
 
@@ -259,11 +260,13 @@ class ChecksPanel(QWidget):
         self.gz_plot = gz_plot
         self.arm_curve = self.static_mark = None
         if gz_plot is not None:
-            self.arm_curve = gz_plot.plot(
+            self.arm_curve = pg.PlotCurveItem(
                 pen=pg.mkPen(style.CREW, width=2, style=Qt.PenStyle.DashDotLine)
             )
-            self.static_mark = pg.ScatterPlotItem(size=9, symbol="o", brush=pg.mkBrush(style.CREW))
-            gz_plot.addItem(self.static_mark)
+            self.static_mark = Markers()
+            self._mark_style = marker_style("o", 9, pen="w", brush=style.CREW)
+            for item in (self.arm_curve, self.static_mark):
+                gz_plot.addItem(item, ignoreBounds=True)
 
         document.designChanged.connect(self._on_design_changed)
         document.designChanging.connect(self._on_drag)
@@ -541,17 +544,18 @@ class ChecksPanel(QWidget):
 
     def _on_design_changed(self) -> None:
         self._fill_choices(self.document.committed)
-        if self.arm_curve is not None:  # stale until the checks come back
-            self.arm_curve.setData([], [])
-            self.static_mark.setData([], [])
+        self._hide_arm()  # stale until the checks come back
         self._timer.start()
 
     def _on_drag(self) -> None:
-        if self.document.is_previewing:
+        if self.document.is_previewing and self.arm_curve is not None and self.arm_curve.isVisible():
             self.state.setText("Figures from before the drag; they update when you let go.")
-            if self.arm_curve is not None:
-                self.arm_curve.setData([], [])
-                self.static_mark.setData([], [])
+            self._hide_arm()
+
+    def _hide_arm(self) -> None:
+        if self.arm_curve is not None:
+            self.arm_curve.hide()
+            self.static_mark.hide()
 
     def recompute(self) -> None:
         """Start the checks for the committed design (newest request wins)."""
@@ -619,19 +623,20 @@ class ChecksPanel(QWidget):
         if self.arm_curve is None:
             return
         if check is None or self.document.is_previewing:
-            self.arm_curve.setData([], [])
-            self.static_mark.setData([], [])
+            self._hide_arm()
             return
         self.arm_curve.setData(check.heel_deg, check.heeling_arm)
+        self.arm_curve.show()
         (x0, x1), (y0, y1) = self.gz_plot.viewRange()
         top = float(np.max(check.heeling_arm)) * 1.1
         if top > y1:  # show the whole heeling arm: it may stand above the GZ curve
             self.gz_plot.setRange(xRange=(x0, x1), yRange=(y0, top), padding=0)
         if check.static_heel_deg is not None:
             arm = np.interp(check.static_heel_deg, check.heel_deg, check.heeling_arm)
-            self.static_mark.setData([check.static_heel_deg], [arm])
+            self.static_mark.set_markers([check.static_heel_deg], [arm], [self._mark_style])
+            self.static_mark.show()
         else:
-            self.static_mark.setData([], [])
+            self.static_mark.hide()
 
     def _show_whatif(self, rows: tuple[SensitivityRow, ...], u: UnitSystem) -> None:
         self.whatif.setHorizontalHeaderLabels(

@@ -322,7 +322,8 @@ class HullDocument(QObject):
     def finish_preview(self, text: str) -> None:
         """End a drag: the preview becomes one undo step."""
         if self._pending is not None:
-            (design, _note), self._pending = self._pending, None
+            design = self._pending[0]
+            self._pending = None
             if not self._refuse(design):
                 self._preview = design
         if self._preview is None:

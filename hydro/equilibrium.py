@@ -295,7 +295,6 @@ def solve_equilibrium(
     tau = np.array(tau0, dtype=float)
     tau_start = np.asarray(tau0, dtype=float)
     w, wx = table.weights, table.weights_x
-    length = float(table.x[-1] - table.x[0])
     if free_trim:
         h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau, FAST_ITERATIONS)
         c = cut(table, frame, _levels(table, h, tau))

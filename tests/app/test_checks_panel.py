@@ -44,6 +44,7 @@ def test_crew_shift_shown_is_the_engines(panel):
     assert shown.verdict == "holds" and "HOLDS" in widget.shift_verdict.text()
     assert shown.static_heel_deg == pytest.approx(expected.static_heel_deg, abs=1e-9)
     x, y = widget.arm_curve.getData()
+    assert widget.arm_curve.isVisible()
     np.testing.assert_allclose(y, expected.heeling_arm)
     (heel,), _ = widget.static_mark.getData()
     assert heel == pytest.approx(expected.static_heel_deg)

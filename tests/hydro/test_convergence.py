@@ -8,7 +8,6 @@ Reference values: Wigley (1934) closed forms (C_B = 4/9, BM_L = 3L^2/(40T)).
 """
 
 import numpy as np
-import pytest
 
 from hydro.analytic import wigley
 from hydro.sections import build_section_table, cut, heel_frame

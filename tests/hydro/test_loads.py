@@ -3,7 +3,6 @@
 import math
 import re
 
-import numpy as np
 import pytest
 
 from hydro import CrewMember, LoadError, Loads, MassItem, Material, weight_build_up
