@@ -11,6 +11,7 @@ document, so each is one undo step.
 from __future__ import annotations
 
 import math
+import threading
 from dataclasses import dataclass, replace
 from typing import Callable
 
@@ -57,7 +58,7 @@ from app.markers import Markers, marker_style
 from app.units import UnitSystem
 from app.view_options import ViewOptions
 
-__all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "run_checks", "heel_text", "trim_text", "beam_text", "swamp_text"]
+__all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "Cancelled", "run_checks", "heel_text", "trim_text", "beam_text", "swamp_text"]
 
 _VERDICT_STATE = {"holds": "stable", "floods": "marginal", "capsizes": "unstable"}
 _VERDICT_WORDS = {"holds": "HOLDS", "floods": "FLOODS FIRST", "capsizes": "CAPSIZES"}
@@ -99,11 +100,20 @@ class CheckResults:
     problems: tuple[str, ...]
 
 
-def run_checks(design: Design, inputs: CheckInputs) -> CheckResults:
-    """Run every check (pure: no Qt); a check that cannot run leaves a message."""
+class Cancelled(Exception):
+    """The checks were no longer wanted (a newer edit, or a drag began)."""
+
+
+def run_checks(design: Design, inputs: CheckInputs, cancelled: Callable[[], bool] = lambda: False) -> CheckResults:
+    """Run every check (pure: no Qt); a check that cannot run leaves a message.
+
+    ``cancelled`` is asked between checks; when it says so, :class:`Cancelled` is raised.
+    """
     problems: list[str] = []
 
     def attempt(what: str, fn: Callable[[], object]) -> object | None:
+        if cancelled():
+            raise Cancelled
         try:
             return fn()
         except HullwrightError as e:
@@ -145,13 +155,17 @@ class _Relay(QObject):
 
 
 class _ChecksJob(QRunnable):
-    def __init__(self, generation: int, design: Design, inputs: CheckInputs, relay: _Relay):
+    def __init__(self, generation: int, design: Design, inputs: CheckInputs, relay: _Relay,
+                 stop: threading.Event):
         super().__init__()
         self.generation, self.design, self.inputs, self.relay = generation, design, inputs, relay
+        self.stop = stop
 
     def run(self) -> None:
         try:
-            result: object = run_checks(self.design, self.inputs)
+            result: object = run_checks(self.design, self.inputs, self.stop.is_set)
+        except Cancelled:
+            return
         except Exception as e:  # noqa: BLE001 - shown in the panel, never lost on a thread
             result = e
         try:
@@ -235,6 +249,7 @@ class ChecksPanel(QWidget):
         self.results: CheckResults | None = None
         self.incline: InclineResult | None = None
         self._generation = 0
+        self._stop = threading.Event()  # set to abandon the run in progress
         self._stopped = False
         self._relay = _Relay(self)  # deleted with the panel, so late results go nowhere
         self._relay.done.connect(self._on_done)
@@ -548,6 +563,8 @@ class ChecksPanel(QWidget):
         self._timer.start()
 
     def _on_drag(self) -> None:
+        self._timer.stop()
+        self._stop.set()  # a run in progress would only slow the drag down
         if self.document.is_previewing and self.arm_curve is not None and self.arm_curve.isVisible():
             self.state.setText("Figures from before the drag; they update when you let go.")
             self._hide_arm()
@@ -562,8 +579,12 @@ class ChecksPanel(QWidget):
         if self._stopped:
             return
         self._generation += 1
+        self._stop.set()
+        self._stop = threading.Event()
         self.state.setText("Working out the checks…")
-        self._pool.start(_ChecksJob(self._generation, self.document.committed, self.inputs, self._relay))
+        self._pool.start(
+            _ChecksJob(self._generation, self.document.committed, self.inputs, self._relay, self._stop)
+        )
 
     def _on_done(self, generation: int, result: object) -> None:
         if generation != self._generation:
@@ -586,6 +607,7 @@ class ChecksPanel(QWidget):
         """Stop: no more runs, and results still on their way are dropped."""
         self._timer.stop()
         self._generation += 1
+        self._stop.set()
         if not self._stopped:
             self._stopped = True
             self._relay.done.disconnect(self._on_done)

@@ -11,6 +11,8 @@ every view that changed).  ``drag_frame_p90_ms`` is the 90th percentile.
 ``release_ms``: from the button release to the repainted exact figures (full analysis).
 ``startup_ms``: from the first line of this script (before Qt is imported) to the
 window shown with its first figures painted; the interpreter's own start is not in it.
+The drag starts once the builder's checks (run in the background after loading) are
+done; a drag that starts during them stops them at their next step.
 """
 
 from __future__ import annotations
@@ -73,6 +75,8 @@ def pixel(plot, x: float, y: float) -> QPoint:
 
 
 def run(path: Path) -> dict[str, float]:
+    # a fresh settings file per window, so no run inherits another's layout
+    os.environ["HULLWRIGHT_SETTINGS"] = tempfile.mkstemp(prefix="hullwright-bench-", suffix=".ini")[1]
     window, error = create_window([str(path)])
     if error:
         raise SystemExit(f"drag.py: {error}")
@@ -81,6 +85,7 @@ def run(path: Path) -> dict[str, float]:
     window.results.gz_plot.viewport().installEventFilter(gz_painted)
     settle(window, gz_painted, 0)
     shown = time.perf_counter()
+    window.checks.wait()  # the builder's checks run in the background after loading
     window.fit_all()
     QApplication.processEvents()
 
