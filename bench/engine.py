@@ -11,10 +11,8 @@ hydrostatics + GZ curve 0-90 degrees at 1 degree with free trim at every angle.
 
 from __future__ import annotations
 
-import statistics
 import subprocess
 import sys
-import time
 from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
@@ -24,6 +22,8 @@ import numpy as np  # noqa: E402
 from hydro.analytic import wigley  # noqa: E402
 from hydro.loads import WeightSummary  # noqa: E402
 from hydro.runtime import keep_freed_memory  # noqa: E402
+
+import timing  # noqa: E402 - bench/timing.py, beside this script
 from hydro.sections import build_section_table  # noqa: E402
 from hydro.stability import righting_curve, upright  # noqa: E402
 
@@ -32,15 +32,8 @@ RHO = 1000.0
 HEEL = np.arange(0.0, 91.0, 1.0)
 
 
-def median_ms(fn, repeat: int = 60, warmup: int = 5) -> float:
-    for _ in range(warmup):
-        fn()
-    times = []
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t0)
-    return 1000.0 * statistics.median(times)
+def median_ms(fn) -> float:
+    return timing.median_ms(fn, repeat=60, warmup=5)
 
 
 def main() -> None:

@@ -10,10 +10,8 @@ writing the file.  The other lines split it up and time the PDF.
 from __future__ import annotations
 
 import os
-import statistics
 import sys
 import tempfile
-import time
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -26,16 +24,11 @@ from app.plate import render_plate_file, render_plate_image  # noqa: E402
 from hydro import analyse, load_design  # noqa: E402
 from hydro.runtime import keep_freed_memory  # noqa: E402
 
+import timing  # noqa: E402 - bench/timing.py, beside this script
 
-def median_ms(fn, repeat: int = 5, warmup: int = 1) -> float:
-    for _ in range(warmup):
-        fn()
-    times = []
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t0)
-    return 1000.0 * statistics.median(times)
+
+def median_ms(fn) -> float:
+    return timing.median_ms(fn, repeat=5, warmup=1)
 
 
 def main() -> None:
