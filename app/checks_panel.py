@@ -55,7 +55,7 @@ from hydro.checks import (
 from app import style
 from app.document import HullDocument
 from app.markers import Markers, marker_style
-from app.units import UnitSystem
+from hydro.units import UnitSystem
 from app.view_options import ViewOptions
 
 __all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "Cancelled", "run_checks", "heel_text", "trim_text", "beam_text", "swamp_text"]

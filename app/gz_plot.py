@@ -17,7 +17,7 @@ from hydro import StabilityCurve
 from app import style
 from app.drawing import VerticalBand, style_axes
 from app.markers import Markers, marker_style
-from app.units import UnitSystem
+from hydro.units import UnitSystem
 
 __all__ = ["GzPlot", "nice_ceiling", "LEGEND_HTML"]
 

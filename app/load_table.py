@@ -14,7 +14,7 @@ from typing import Any
 from PySide6.QtCore import QSignalBlocker, Qt, Signal
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableWidget, QTableWidgetItem
 
-from app.units import UnitSystem
+from hydro.units import UnitSystem
 
 __all__ = ["Column", "LoadTable", "areal_factor"]
 

@@ -40,7 +40,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from app.units import UnitSystem, system
+from hydro.units import UnitSystem, system
 from hydro import checks
 from hydro.design import Design, analyse
 from hydro.errors import HullwrightError

@@ -27,7 +27,7 @@ from hydro.sections import build_section_table
 from app import style
 from app.document import ROUGH_HEEL_STEP_DEG, ROUGH_STATION_COUNT, HullDocument
 from app.gz_plot import LEGEND_HTML, GzPlot
-from app.units import UnitSystem
+from hydro.units import UnitSystem
 from app.view_options import ViewOptions
 
 __all__ = ["ResultsPanel", "gm_state", "MARGINAL_GM_M", "MARGINAL_GM_BEAM_FRACTION"]

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from PySide6.QtCore import QObject, Signal
 
-from app.units import METRIC, UnitSystem, system
+from hydro.units import METRIC, UnitSystem, system
 
 __all__ = ["ViewOptions"]
 

@@ -7,7 +7,7 @@ Typical use::
     print(result.hydrostatics.gm, result.curve.gunwale_immersion_deg)
 """
 
-from hydro.design import AnalysisSettings, Design, analyse, analyse_stations
+from hydro.design import AnalysisSettings, CheckSettings, Design, analyse, analyse_stations
 from hydro.errors import DesignFileError, HullwrightError, LoadError, ShapeError
 from hydro.hull import Curve, HullSketch, SectionShape, Stations, generate_stations, scale_breadth
 from hydro.io import (
@@ -37,6 +37,7 @@ from hydro.stability import G_STANDARD, Analysis, Hydrostatics, StabilityCurve
 __all__ = [
     "AnalysisSettings",
     "Analysis",
+    "CheckSettings",
     "CREW_MASS_KG",
     "CrewMember",
     "Curve",

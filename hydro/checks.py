@@ -18,7 +18,7 @@ from typing import Sequence
 import numpy as np
 from numpy.typing import NDArray
 
-from hydro.design import Design, analyse_stations
+from hydro.design import TARGET_GM_M, Design, analyse_stations
 from hydro.equilibrium import solve_equilibrium
 from hydro.errors import HullwrightError, LoadError
 from hydro.hull import HullSketch, Stations, scale_breadth
@@ -67,9 +67,6 @@ MIN_SHIFTED_FREEBOARD_M = 0.075
 #: A seated person's CG stays this far inboard of the hull side (common practice, no
 #: source: about half a body width).
 BODY_HALF_WIDTH_M = 0.15
-#: Default target GM for the beam aid: IMO 2008 IS Code Part A 2.2.4, GM0 >= 0.15 m (a
-#: ship criterion, used here as a plain benchmark; numbering from memory).
-TARGET_GM_M = 0.15
 #: Largest heel the inclining test should use: IS Code practice is 1-4 degrees per side.
 MAX_INCLINE_DEG = 4.0
 

@@ -8,11 +8,23 @@ import numpy as np
 
 from hydro.errors import HullwrightError, ShapeError
 from hydro.hull import HullSketch, Stations, generate_stations
-from hydro.loads import Loads, WATER_PRESETS, shell_panels, water_density, weight_build_up
+from hydro.loads import (
+    CREW_MASS_KG,
+    HEAVY_CREW_MASS_KG,
+    WATER_PRESETS,
+    Loads,
+    shell_panels,
+    water_density,
+    weight_build_up,
+)
 from hydro.sections import SectionTable, build_section_table
 from hydro.stability import Analysis, analyse_table
 
-__all__ = ["AnalysisSettings", "Design", "analyse", "analyse_stations"]
+__all__ = ["AnalysisSettings", "CheckSettings", "Design", "TARGET_GM_M", "analyse", "analyse_stations"]
+
+#: Default target GM for the beam aid: IMO 2008 IS Code Part A 2.2.4, GM0 >= 0.15 m (a
+#: ship criterion, used here as a plain benchmark; numbering from memory).
+TARGET_GM_M = 0.15
 
 
 @dataclass(frozen=True)
@@ -47,6 +59,40 @@ class AnalysisSettings:
 
 
 @dataclass(frozen=True)
+class CheckSettings:
+    """The builder's check choices, saved with the design so that the app, the command
+    line and the plate all show the same cases.
+
+    Attributes
+    ----------
+    shift_crew : indices into the crew list of those who move across (None: everyone)
+    shift_distance_m : how far each moves sideways (None: to the hull side at seat height)
+    shift_to_gunwale : each sits on the gunwale instead (overrides the distance)
+    boarding_mass_kg : the person climbing in over the gunwale
+    target_gm_m : the GM the beam aid aims for
+    whatif_crew_kg : per crew member, the mass used by the what-if "heavier crew" case
+        (None: each at least HEAVY_CREW_MASS_KG); lets a children's crew stay light
+    whatif_wet_factor : multiplier on material mass for the what-if "soaked" case
+    whatif_bilge_m : extra bilge water depth for the what-if "bilge water" case
+    """
+
+    shift_crew: tuple[int, ...] | None = None
+    shift_distance_m: float | None = None
+    shift_to_gunwale: bool = False
+    boarding_mass_kg: float = CREW_MASS_KG
+    target_gm_m: float = TARGET_GM_M
+    whatif_crew_kg: tuple[float, ...] | None = None
+    whatif_wet_factor: float = 1.5
+    whatif_bilge_m: float = 0.03
+
+    def heavier_crew_kg(self, crew_masses: tuple[float, ...]) -> tuple[float, ...]:
+        """The what-if crew masses for a crew of the given masses."""
+        if self.whatif_crew_kg is not None and len(self.whatif_crew_kg) == len(crew_masses):
+            return self.whatif_crew_kg
+        return tuple(max(m, HEAVY_CREW_MASS_KG) for m in crew_masses)
+
+
+@dataclass(frozen=True)
 class Design:
     """Everything a design file holds.
 
@@ -57,6 +103,7 @@ class Design:
     loads : crew, items, materials, bilge water
     water : preset name ("fresh", "sea") or a density in kg/m^3
     settings : how the GZ curve is computed
+    checks : the builder's check choices (who leans and how far, boarding mass, ...)
     """
 
     name: str
@@ -65,6 +112,7 @@ class Design:
     water: str | float = "fresh"
     notes: str = ""
     settings: AnalysisSettings = field(default_factory=AnalysisSettings)
+    checks: CheckSettings = field(default_factory=CheckSettings)
 
     @property
     def water_density(self) -> float:

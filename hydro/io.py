@@ -18,7 +18,7 @@ from typing import Any
 
 import numpy as np
 
-from hydro.design import AnalysisSettings, Design
+from hydro.design import AnalysisSettings, CheckSettings, Design
 from hydro.errors import DesignFileError, HullwrightError
 from hydro.hull import Curve, HullSketch, SectionShape, Stations
 from hydro.loads import CrewMember, Loads, MassItem, Material, validate_loads
@@ -40,7 +40,9 @@ __all__ = [
 ]
 
 FORMAT = "hullwright.design"
-VERSION = 1
+VERSION = 2
+#: Older versions this program still reads (1: no "checks" section).
+READABLE_VERSIONS = (1, 2)
 MAX_FILE_BYTES = 20 * 1024 * 1024
 
 
@@ -120,6 +122,20 @@ def design_to_dict(d: Design) -> dict[str, Any]:
             "free_trim": d.settings.free_trim,
             "open_boat": d.settings.open_boat,
         },
+        "checks": _checks_dict(d.checks),
+    }
+
+
+def _checks_dict(c: CheckSettings) -> dict[str, Any]:
+    return {
+        "shift_crew": None if c.shift_crew is None else list(c.shift_crew),
+        "shift_distance_m": c.shift_distance_m,
+        "shift_to_gunwale": c.shift_to_gunwale,
+        "boarding_mass_kg": c.boarding_mass_kg,
+        "target_gm_m": c.target_gm_m,
+        "whatif_crew_kg": None if c.whatif_crew_kg is None else list(c.whatif_crew_kg),
+        "whatif_wet_factor": c.whatif_wet_factor,
+        "whatif_bilge_m": c.whatif_bilge_m,
     }
 
 
@@ -281,13 +297,44 @@ def _read_loads(r: _Reader | None) -> Loads:
     )
 
 
+def _read_checks(r: _Reader | None) -> CheckSettings:
+    if r is None:
+        return CheckSettings()
+    d = CheckSettings()
+
+    def optional_list(key: str, kind: type) -> tuple | None:
+        v = r.data.get(key)
+        if v is None:
+            return None
+        if not isinstance(v, list) or not all(
+            isinstance(e, kind) and not isinstance(e, bool) and math.isfinite(e) for e in v
+        ):
+            raise DesignFileError(f"{r.where}.{key}: expected a list of numbers or null")
+        return tuple(v)
+
+    distance = r.data.get("shift_distance_m")
+    return CheckSettings(
+        shift_crew=optional_list("shift_crew", int),
+        shift_distance_m=None if distance is None else r.num("shift_distance_m"),
+        shift_to_gunwale=r.flag("shift_to_gunwale", d.shift_to_gunwale),
+        boarding_mass_kg=r.num("boarding_mass_kg", d.boarding_mass_kg),
+        target_gm_m=r.num("target_gm_m", d.target_gm_m),
+        whatif_crew_kg=optional_list("whatif_crew_kg", (int, float)),  # type: ignore[arg-type]
+        whatif_wet_factor=r.num("whatif_wet_factor", d.whatif_wet_factor),
+        whatif_bilge_m=r.num("whatif_bilge_m", d.whatif_bilge_m),
+    )
+
+
 def design_from_dict(data: Any) -> Design:
     """Build a design from parsed JSON; raises DesignFileError naming the problem."""
     if not isinstance(data, dict) or data.get("format") != FORMAT:
         raise DesignFileError("not a Hullwright design file (no 'format': 'hullwright.design')")
     version = data.get("version")
-    if version != VERSION:
-        raise DesignFileError(f"design file version {version!r} is not supported (this program reads {VERSION})")
+    if type(version) is not int or version not in READABLE_VERSIONS:
+        raise DesignFileError(
+            f"design file version {version!r} is not supported (this program reads "
+            f"{', '.join(map(str, READABLE_VERSIONS))})"
+        )
     r = _Reader(data, "design")
     water_r = r.obj("water", required=False)
     water: str | float = "fresh"
@@ -313,6 +360,7 @@ def design_from_dict(data: Any) -> Design:
             water=water,
             notes=r.text("notes", ""),
             settings=settings,
+            checks=_read_checks(r.obj("checks", required=False)),
         )
         design.water_density  # noqa: B018 - validates the water entry
         settings.heel_angles()
