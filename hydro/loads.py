@@ -50,15 +50,22 @@ SEATED_CG_ABOVE_SEAT_M = 0.30
 #: sea: ship practice 1.025 t/m^3 (Barrass & Derrett), ITTC Table 3 gives 1024.8 at 20 degC.
 WATER_PRESETS: dict[str, float] = {"fresh": 998.2, "sea": 1025.0}
 
-#: Areal densities of shell materials (kg/m^2 per layer), REFERENCES-style sources:
+#: Areal densities of shell materials (kg/m^2 per layer) and where each comes from.
 MATERIAL_PRESETS: dict[str, tuple[float, str]] = {
-    "single-wall corrugated board": (0.55, "derived from liner/medium grammages (Kirwan 2005)"),
-    "double-wall corrugated board": (0.90, "derived from liner/medium grammages (Kirwan 2005)"),
+    "single-wall corrugated board": (
+        0.55, "derived from liner and medium grammages (Kirwan, Paper and Paperboard "
+        "Packaging Technology, 2005, ch. 11)"),
+    "double-wall corrugated board": (
+        0.90, "derived from liner and medium grammages (Kirwan, Paper and Paperboard "
+        "Packaging Technology, 2005, ch. 11)"),
     "triple-wall corrugated board": (1.4, "from memory"),
-    "duct tape": (0.25, "tape thickness ~0.25 mm x ~1.1 g/cm3; density from memory"),
-    "latex paint, one coat": (0.04, "Resene spreading rate; film density from memory"),
-    "okoume plywood 4 mm": (1.8, "supplier sheet (okoume ~450 kg/m3)"),
-    "okoume plywood 6 mm": (2.7, "supplier sheet (okoume ~450 kg/m3)"),
+    "duct tape": (
+        0.25, "common practice: tape about 0.25 mm thick; density ~1.1 g/cm3 from memory"),
+    "latex paint, one coat": (
+        0.04, "common practice: about 16 m2 per litre, ~25 um dry film per coat; "
+        "film density from memory"),
+    "okoume plywood 4 mm": (1.8, "common practice: okoume ~450 kg/m3"),
+    "okoume plywood 6 mm": (2.7, "common practice: okoume ~450 kg/m3"),
     "glass/epoxy sheathing": (0.4, "from memory, ~200 g/m2 cloth hand lay-up"),
 }
 
@@ -178,7 +185,7 @@ class WeightSummary:
 
     @property
     def fsc(self) -> float:
-        """Free-surface correction to GM (m), Barrass & Derrett F13."""
+        """Free-surface correction to GM (m): rho i / Delta (Barrass & Derrett, free surface)."""
         return self.free_surface_moment / self.mass if self.mass > 0 else 0.0
 
 
@@ -323,7 +330,8 @@ def weight_build_up(
     Materials: areal density x layers x wet factor over the chosen surfaces, centred on
     the real surface.  Bilge water: the hull volume up to the water level (thin-shell
     approximation: the outside of the hull stands for the inside), with its free-surface
-    moment rho * i (Barrass & Derrett F13).
+    moment rho * i (Barrass & Derrett, *Ship Stability for Masters and Mates*, free
+    surface chapter).
 
     Raises
     ------

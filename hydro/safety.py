@@ -1,7 +1,8 @@
 """The safety cautions shown by the app, the print plate, the report and the README.
 
-Drawn from published regatta rules and boating-safety guidance (REFERENCES §4); one
-wording everywhere.
+Drawn from published cardboard-boat regatta rules and boating-safety guidance (wear a
+fastened life jacket, stay with a capsized boat, beware of cold-water shock); one wording
+everywhere.
 """
 
 __all__ = ["CAUTIONS", "SHORT_CAUTION", "DISCLAIMER"]

@@ -1,4 +1,9 @@
-"""House rule: the engine never loads Qt (it must run headless and be testable alone)."""
+"""House rule: the engine never loads Qt (it must run headless and be testable alone).
+
+Checked twice: at run time (importing hydro pulls in no Qt) and statically by
+import-linter's contract in pyproject.toml (no module of hydro imports app, PySide6 or
+pyqtgraph, directly or through another module).
+"""
 
 import subprocess
 import sys
@@ -23,3 +28,12 @@ def test_report_command_imports_no_qt(tmp_path):
     )
     out = subprocess.run([sys.executable, "-c", code], cwd=ROOT, capture_output=True, text=True, check=True)
     assert out.stderr.strip().endswith("clean")
+
+
+def test_import_contract_is_kept():
+    code = "from importlinter.cli import lint_imports_command; lint_imports_command()"
+    out = subprocess.run(
+        [sys.executable, "-c", code, "--no-cache"], cwd=ROOT, capture_output=True, text=True
+    )
+    assert out.returncode == 0, out.stdout + out.stderr
+    assert "1 kept, 0 broken" in out.stdout
