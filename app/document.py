@@ -31,6 +31,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 
 from hydro import (
     MATERIAL_PRESETS,
+    MATERIAL_THICKNESS_M,
     Analysis,
     CrewMember,
     Curve,
@@ -89,7 +90,12 @@ def starter_design() -> Design:
     )
     loads = Loads(
         crew=(CrewMember("paddler", x=1.2),),
-        materials=(Material(board, MATERIAL_PRESETS[board][0], layers=2.0),),
+        materials=(
+            Material(
+                board, MATERIAL_PRESETS[board][0], layers=2.0,
+                thickness_m=MATERIAL_THICKNESS_M[board],
+            ),
+        ),
         bottom_thickness=0.014,
     )
     return Design(name="New hull", hull=hull, loads=loads)

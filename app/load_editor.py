@@ -28,6 +28,7 @@ from hydro import (
     CREW_MASS_KG,
     HEAVY_CREW_MASS_KG,
     MATERIAL_PRESETS,
+    MATERIAL_THICKNESS_M,
     SEATED_CG_ABOVE_SEAT_M,
     WATER_PRESETS,
     Analysis,
@@ -254,7 +255,9 @@ class LoadEditor(QWidget):
         name = self.preset_box.currentData()
         density, _source = MATERIAL_PRESETS[name]
         loads = self.document.committed.loads
-        self._edit_loads("Add material", materials=loads.materials + (Material(name, density),))
+        thickness = MATERIAL_THICKNESS_M.get(name, 0.0)
+        material = Material(name, density, thickness_m=thickness)
+        self._edit_loads("Add material", materials=loads.materials + (material,))
 
     def _add_item(self) -> None:
         loads = self.document.committed.loads

@@ -109,6 +109,7 @@ def design_to_dict(d: Design) -> dict[str, Any]:
                     "areal_density_kg_m2": m.areal_density,
                     "layers": m.layers,
                     "surfaces": list(m.surfaces),
+                    "thickness_m": m.thickness_m,
                 }
                 for m in ld.materials
             ],
@@ -285,7 +286,13 @@ def _read_loads(r: _Reader | None) -> Loads:
         if not isinstance(surfaces, list) or not all(isinstance(s, str) for s in surfaces):
             raise DesignFileError(f"{m.where}: 'surfaces' must be a list of names")
         materials.append(
-            Material(m.text("name", "material"), m.num("areal_density_kg_m2"), m.num("layers", 1.0), tuple(surfaces))
+            Material(
+                m.text("name", "material"),
+                m.num("areal_density_kg_m2"),
+                m.num("layers", 1.0),
+                tuple(surfaces),
+                m.num("thickness_m", 0.0),
+            )
         )
     return Loads(
         crew=crew,

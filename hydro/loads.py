@@ -26,6 +26,8 @@ __all__ = [
     "WeightLine",
     "WeightSummary",
     "MATERIAL_PRESETS",
+    "MATERIAL_THICKNESS_M",
+    "SHEET_MIN_THICKNESS_M",
     "WATER_PRESETS",
     "CREW_MASS_KG",
     "HEAVY_CREW_MASS_KG",
@@ -68,6 +70,22 @@ MATERIAL_PRESETS: dict[str, tuple[float, str]] = {
     "okoume plywood 6 mm": (2.7, "common practice: okoume ~450 kg/m3"),
     "glass/epoxy sheathing": (0.4, "from memory, ~200 g/m2 cloth hand lay-up"),
 }
+
+#: Thickness of one layer of each preset (m); sheet stock from supplier listings, the
+#: thin coatings from memory.  A material at least SHEET_MIN_THICKNESS_M thick is cut
+#: from sheets (the build pack lays it out); thinner ones are coatings.
+MATERIAL_THICKNESS_M: dict[str, float] = {
+    "single-wall corrugated board": 0.004,
+    "double-wall corrugated board": 0.007,
+    "triple-wall corrugated board": 0.015,
+    "duct tape": 0.00025,
+    "latex paint, one coat": 0.00005,
+    "okoume plywood 4 mm": 0.004,
+    "okoume plywood 6 mm": 0.006,
+    "glass/epoxy sheathing": 0.0005,
+}
+#: Thinner materials are coatings (tape, paint, sheathing), not cut from sheets.
+SHEET_MIN_THICKNESS_M = 0.001
 
 SURFACES = ("bottom", "sides", "ends")
 
@@ -117,12 +135,20 @@ class Material:
     areal_density : kg/m^2 per layer
     layers : how many layers (>= 0)
     surfaces : which of "bottom", "sides", "ends" it covers
+    thickness_m : thickness of one layer (m); 0 when unknown.  Sheet stock (at least
+        SHEET_MIN_THICKNESS_M) insets the frames and is laid out on sheets.
     """
 
     name: str
     areal_density: float
     layers: float = 1.0
     surfaces: tuple[str, ...] = SURFACES
+    thickness_m: float = 0.0
+
+    @property
+    def is_sheet(self) -> bool:
+        """Cut from sheet stock (not a tape, paint or sheathing)."""
+        return self.thickness_m >= SHEET_MIN_THICKNESS_M
 
 
 @dataclass(frozen=True)
@@ -313,6 +339,7 @@ def validate_loads(loads: Loads, stations: Stations) -> None:
     for m in loads.materials:
         _check_number(m.areal_density, f"material '{m.name}' areal density (kg/m2)", 0.0, 100.0)
         _check_number(m.layers, f"material '{m.name}' layers", 0.0, 50.0)
+        _check_number(m.thickness_m, f"material '{m.name}' thickness (m)", 0.0, 0.2)
         unknown = set(m.surfaces) - set(SURFACES)
         if unknown:
             raise LoadError(f"material '{m.name}': unknown surface {sorted(unknown)[0]!r}")
