@@ -12,12 +12,11 @@ from __future__ import annotations
 
 import math
 import threading
-from dataclasses import dataclass, replace
-from typing import Callable
+from dataclasses import replace
 
 import numpy as np
 import pyqtgraph as pg
-from PySide6.QtCore import QObject, QRunnable, Qt, QThreadPool, QTimer, Signal
+from PySide6.QtCore import Qt, QThreadPool, QTimer, Signal
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QButtonGroup,
@@ -41,137 +40,24 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from hydro import CREW_MASS_KG, Design, HullSketch, HullwrightError, analyse, checks, scale_breadth
-from hydro.checks import (
-    BeamResult,
-    HeelCheck,
-    InclineReading,
-    InclineResult,
-    SensitivityRow,
-    SwampResult,
-    TrimResult,
-)
+from hydro import Design, HullSketch, HullwrightError, scale_breadth
+from hydro import aids, heel_checks, incline
+from hydro.aids import BeamResult, TrimResult
+from hydro.heel_checks import HeelCheck
+from hydro.incline import InclineReading, InclineResult
+from hydro.whatif import SensitivityRow, SwampResult
 
 from app import style
+from app.checks_runner import CheckInputs, CheckResults, ChecksJob, Relay
 from app.document import HullDocument
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
 from app.view_options import ViewOptions
 
-__all__ = ["ChecksPanel", "CheckInputs", "CheckResults", "Cancelled", "run_checks", "heel_text", "trim_text", "beam_text", "swamp_text"]
+__all__ = ["ChecksPanel", "heel_text", "trim_text", "beam_text", "swamp_text"]
 
 _VERDICT_STATE = {"holds": "stable", "floods": "marginal", "capsizes": "unstable"}
 _VERDICT_WORDS = {"holds": "HOLDS", "floods": "FLOODS FIRST", "capsizes": "CAPSIZES"}
-
-
-@dataclass(frozen=True)
-class CheckInputs:
-    """What the builder asked for (panel state, not part of the design).
-
-    Attributes
-    ----------
-    movers : crew indices that shift (None = everyone)
-    mode : "side" (to the hull side at seat height), "gunwale" or "distance"
-    distance : metres each moves in "distance" mode
-    boarding_mass : kg of the person climbing aboard
-    target_gm : metres, for the beam aid
-    trim_subject : ("crew" | "item", index) that moves for level trim
-    """
-
-    movers: tuple[int, ...] | None = None
-    mode: str = "side"
-    distance: float = 0.3
-    boarding_mass: float = CREW_MASS_KG
-    target_gm: float = checks.TARGET_GM_M
-    trim_subject: tuple[str, int] = ("crew", 0)
-
-
-@dataclass(frozen=True)
-class CheckResults:
-    """Everything the panel shows; ``problems`` holds one message per check that failed."""
-
-    design: Design
-    shift: HeelCheck | None
-    boarding: HeelCheck | None
-    trim: TrimResult | None
-    beam: BeamResult | None
-    sensitivity: tuple[SensitivityRow, ...]
-    swamp: SwampResult | None
-    problems: tuple[str, ...]
-
-
-class Cancelled(Exception):
-    """The checks were no longer wanted (a newer edit, or a drag began)."""
-
-
-def run_checks(design: Design, inputs: CheckInputs, cancelled: Callable[[], bool] = lambda: False) -> CheckResults:
-    """Run every check (pure: no Qt); a check that cannot run leaves a message.
-
-    ``cancelled`` is asked between checks; when it says so, :class:`Cancelled` is raised.
-    """
-    problems: list[str] = []
-
-    def attempt(what: str, fn: Callable[[], object]) -> object | None:
-        if cancelled():
-            raise Cancelled
-        try:
-            return fn()
-        except HullwrightError as e:
-            problems.append(f"{what}: {e}")
-            return None
-
-    analysis = analyse(design)
-    floats = analysis.hydrostatics is not None and analysis.curve is not None
-    if not floats:
-        problems.append(analysis.message)
-    crew = design.loads.crew
-    movers = inputs.movers if inputs.movers is not None else tuple(range(len(crew)))
-    movers = tuple(i for i in movers if 0 <= i < len(crew))
-    shift = boarding = trim = beam = swamp = None
-    rows: tuple[SensitivityRow, ...] = ()
-    if floats:
-        if crew and movers:
-            shift = attempt("Crew shift", lambda: checks.crew_shift(
-                design, movers,
-                inputs.distance if inputs.mode == "distance" else None,
-                inputs.mode == "gunwale", analysis,
-            ))
-        boarding = attempt("Boarding", lambda: checks.boarding(design, inputs.boarding_mass))
-        kind, index = inputs.trim_subject
-        if (kind == "crew" and index < len(crew)) or (kind == "item" and index < len(design.loads.items)):
-            trim = attempt("Level trim", lambda: checks.level_trim(
-                design, crew_index=index if kind == "crew" else None,
-                item_index=index if kind == "item" else None,
-            ))
-        if isinstance(design.hull, HullSketch):
-            beam = attempt("Beam", lambda: checks.beam_for_gm(design, inputs.target_gm))
-        rows = attempt("What if", lambda: checks.sensitivity(design)) or ()  # type: ignore[assignment]
-        swamp = attempt("Swamping", lambda: checks.swamping(design, analysis))
-    return CheckResults(design, shift, boarding, trim, beam, rows, swamp, tuple(problems))  # type: ignore[arg-type]
-
-
-class _Relay(QObject):
-    done = Signal(int, object)
-
-
-class _ChecksJob(QRunnable):
-    def __init__(self, generation: int, design: Design, inputs: CheckInputs, relay: _Relay,
-                 stop: threading.Event):
-        super().__init__()
-        self.generation, self.design, self.inputs, self.relay = generation, design, inputs, relay
-        self.stop = stop
-
-    def run(self) -> None:
-        try:
-            result: object = run_checks(self.design, self.inputs, self.stop.is_set)
-        except Cancelled:
-            return
-        except Exception as e:  # noqa: BLE001 - shown in the panel, never lost on a thread
-            result = e
-        try:
-            self.relay.done.emit(self.generation, result)
-        except RuntimeError:  # the panel (and its relay) closed meanwhile: nobody waits
-            pass
 
 
 def _verdict_label() -> QLabel:
@@ -190,8 +76,8 @@ def heel_text(check: HeelCheck, u: UnitSystem) -> str:
     if check.verdict == "floods":
         return f"{heel}, but the gunwale goes under first: an open boat swamps."
     text = f"{heel} with {u.length_text(check.low_freeboard)} freeboard left on the low side"
-    if check.low_freeboard is not None and check.low_freeboard < checks.MIN_SHIFTED_FREEBOARD_M:
-        text += f", less than the {u.length_text(checks.MIN_SHIFTED_FREEBOARD_M)} suggested"
+    if check.low_freeboard is not None and check.low_freeboard < heel_checks.MIN_SHIFTED_FREEBOARD_M:
+        text += f", less than the {u.length_text(heel_checks.MIN_SHIFTED_FREEBOARD_M)} suggested"
     return text + "."
 
 
@@ -251,7 +137,7 @@ class ChecksPanel(QWidget):
         self._generation = 0
         self._stop = threading.Event()  # set to abandon the run in progress
         self._stopped = False
-        self._relay = _Relay(self)  # deleted with the panel, so late results go nowhere
+        self._relay = Relay(self)  # deleted with the panel, so late results go nowhere
         self._relay.done.connect(self._on_done)
         self._pool = QThreadPool(self)
         self._pool.setMaxThreadCount(1)
@@ -583,7 +469,7 @@ class ChecksPanel(QWidget):
         self._stop = threading.Event()
         self.state.setText("Working out the checks…")
         self._pool.start(
-            _ChecksJob(self._generation, self.document.committed, self.inputs, self._relay, self._stop)
+            ChecksJob(self._generation, self.document.committed, self.inputs, self._relay, self._stop)
         )
 
     def _on_done(self, generation: int, result: object) -> None:
@@ -689,7 +575,7 @@ class ChecksPanel(QWidget):
         if r is None or r.trim is None or r.trim.x_after is None:
             return
         kind, _ = self.inputs.trim_subject
-        design = checks.apply_level_trim(self.document.committed, r.trim, is_item=kind == "item")
+        design = aids.apply_level_trim(self.document.committed, r.trim, is_item=kind == "item")
         self.document.edit(design, f"Level trim: move {r.trim.what}")
 
     def _apply_beam(self) -> None:
@@ -741,13 +627,13 @@ class ChecksPanel(QWidget):
         try:
             readings = self.incline_readings()
             if self.weighed.isChecked():
-                result = checks.inclining_test(
+                result = incline.inclining_test(
                     self.document.committed, readings, displacement=u.from_mass(self.weighed_box.value()),
                     wall_sided_correction=self.correction.isChecked(),
                 )
             else:
                 fb = (u.from_length(self.fb_aft_box.value()), u.from_length(self.fb_fore_box.value()))
-                result = checks.inclining_test(
+                result = incline.inclining_test(
                     self.document.committed, readings, freeboards=fb,
                     wall_sided_correction=self.correction.isChecked(),
                 )
@@ -768,5 +654,5 @@ class ChecksPanel(QWidget):
     def _apply_incline(self) -> None:
         if self.incline is None:
             return
-        design = checks.apply_inclining(self.document.committed, self.incline)
+        design = incline.apply_inclining(self.document.committed, self.incline)
         self.document.edit(design, "Use the inclined boat's mass and KG")

@@ -28,7 +28,7 @@ from hydro import (
     report_dict,
     write_offsets,
 )
-from hydro import checks
+from hydro import aids, heel_checks, incline, whatif
 from hydro.io import read_incline_readings
 from hydro.loads import water_density
 from hydro.runtime import keep_freed_memory
@@ -191,7 +191,7 @@ def format_report(a: Analysis, name: str) -> str:
     return "\n".join(lines)
 
 
-def _heel_dict(c: "checks.HeelCheck") -> dict:
+def _heel_dict(c: "heel_checks.HeelCheck") -> dict:
     return {
         "title": c.title, "verdict": c.verdict, "message": c.message, "moved_mass_kg": c.moved_mass,
         "heeling_arm_at_0_m": c.arm0, "static_heel_deg": c.static_heel_deg,
@@ -210,16 +210,16 @@ def _check(args: argparse.Namespace) -> None:
     analysis = analyse(design)
     if analysis.hydrostatics is None:
         raise BadInput(analysis.message)
-    shift = checks.crew_shift(design, members, args.distance, args.gunwale, analysis)
-    board = checks.boarding(design, args.boarding_mass)
-    trims = [checks.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
+    shift = heel_checks.crew_shift(design, members, args.distance, args.gunwale, analysis)
+    board = heel_checks.boarding(design, args.boarding_mass)
+    trims = [aids.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
     beam = (
-        checks.beam_for_gm(design, args.target_gm if args.target_gm is not None else checks.TARGET_GM_M)
+        aids.beam_for_gm(design, args.target_gm if args.target_gm is not None else aids.TARGET_GM_M)
         if isinstance(design.hull, HullSketch)
         else None
     )
-    rows = checks.sensitivity(design)
-    swamp = checks.swamping(design, analysis)
+    rows = whatif.sensitivity(design)
+    swamp = whatif.swamping(design, analysis)
     if args.json:
         out = {
             "crew_shift": _heel_dict(shift),
@@ -272,7 +272,7 @@ def _incline(args: argparse.Namespace) -> None:
         except ValueError:
             raise BadInput("--freeboards must be two numbers AFT,FORE in metres") from None
         freeboards = (aft, fore)
-    res = checks.inclining_test(design, readings, args.mass, freeboards, not args.no_correction)
+    res = incline.inclining_test(design, readings, args.mass, freeboards, not args.no_correction)
     if args.json:
         print(json.dumps({
             "GM_m": res.gm, "KM_m": res.km, "KG_m": res.kg, "displacement_kg": res.displacement,

@@ -41,7 +41,7 @@ from PySide6.QtGui import (
 )
 
 from hydro.units import UnitSystem, system
-from hydro import checks
+from hydro import aids, heel_checks
 from hydro.design import Design, analyse
 from hydro.errors import HullwrightError
 from hydro.hull import Stations
@@ -1698,8 +1698,8 @@ def marks_from_checks(design: Design, analysis: Analysis) -> PlateMarks:
     if analysis.hydrostatics is None or analysis.curve is None or not design.loads.crew:
         return PlateMarks()
     try:
-        shift = checks.crew_shift(design, analysis=analysis)
-        trims = [checks.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
+        shift = heel_checks.crew_shift(design, analysis=analysis)
+        trims = [aids.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
     except HullwrightError:
         return PlateMarks()
     verdict = {

@@ -20,7 +20,15 @@ from hydro.loads import (
 from hydro.sections import SectionTable, build_section_table
 from hydro.stability import Analysis, analyse_table
 
-__all__ = ["AnalysisSettings", "CheckSettings", "Design", "TARGET_GM_M", "analyse", "analyse_stations"]
+__all__ = [
+    "AnalysisSettings",
+    "CheckSettings",
+    "Design",
+    "TARGET_GM_M",
+    "analyse",
+    "analyse_stations",
+    "check_context",
+]
 
 #: Default target GM for the beam aid: IMO 2008 IS Code Part A 2.2.4, GM0 >= 0.15 m (a
 #: ship criterion, used here as a plain benchmark; numbering from memory).
@@ -170,3 +178,9 @@ def analyse(design: Design) -> Analysis:
         cannot carry is not an error: it is reported in ``Analysis.status``.
     """
     return analyse_stations(design.stations(), design.loads, design.water_density, design.settings)
+
+
+def check_context(design: Design) -> tuple[Stations, SectionTable, float]:
+    """The design's stations, their section table and the water density (kg/m^3)."""
+    stations = design.stations()
+    return stations, build_section_table(stations), design.water_density

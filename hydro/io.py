@@ -560,7 +560,7 @@ def read_incline_readings(path: str | os.PathLike[str]) -> list[Any]:
     ``pendulum_length_m,deflection_m``; distance and heel or deflection are signed,
     positive to starboard.  Lines starting with '#' are comments.
     """
-    from hydro.checks import InclineReading
+    from hydro.incline import InclineReading
 
     p = Path(path)
     text = _read_text(p)

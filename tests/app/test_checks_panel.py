@@ -7,7 +7,7 @@ import numpy as np
 import pytest
 from PySide6.QtWidgets import QTableWidgetItem
 
-from hydro import analyse, checks
+from hydro import aids, analyse, heel_checks
 
 from app.checks_panel import ChecksPanel
 from app.document import HullDocument
@@ -39,7 +39,7 @@ def panel(qtbot):
 
 def test_crew_shift_shown_is_the_engines(panel):
     doc, widget, _ = panel("drift-lab-raft")
-    expected = checks.crew_shift(doc.committed)
+    expected = heel_checks.crew_shift(doc.committed)
     shown = widget.results.shift
     assert shown.verdict == "holds" and "HOLDS" in widget.shift_verdict.text()
     assert shown.static_heel_deg == pytest.approx(expected.static_heel_deg, abs=1e-9)
@@ -63,7 +63,7 @@ def test_only_ticked_crew_move(panel, qtbot):
     with qtbot.waitSignal(widget.checksReady, timeout=30000):
         widget.movers.item(1).setCheckState(Qt.CheckState.Unchecked)
     assert widget.inputs.movers == (0,)
-    one = checks.crew_shift(doc.committed, members=[0])
+    one = heel_checks.crew_shift(doc.committed, members=[0])
     assert widget.results.shift.arm0 == pytest.approx(one.arm0)
 
 
@@ -87,7 +87,7 @@ def test_beam_for_target_gm_applies(panel, qtbot):
     beam = widget.results.beam
     assert beam.target_gm == pytest.approx(0.25)
     widget.beam_apply.click()
-    # checks.beam_for_gm stops within 0.1 mm of the target
+    # aids.beam_for_gm stops within 0.1 mm of the target
     assert analyse(doc.committed).hydrostatics.gm == pytest.approx(0.25, abs=1e-4)
 
 

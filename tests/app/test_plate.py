@@ -375,7 +375,8 @@ def test_plate_marks_come_from_the_builders_checks():
     """The plate's crew-shift and level-trim marks are the hydro checks' own results."""
     from app.plate import marks_from_checks
     from hydro import analyse, load_design
-    from hydro.checks import crew_shift, level_trim
+    from hydro.aids import level_trim
+    from hydro.heel_checks import crew_shift
 
     raft = load_design(SAMPLES / "drift-lab-raft.json")
     analysis = analyse(raft)

@@ -25,18 +25,10 @@ from hydro import (
     Material,
     SectionShape,
 )
-from hydro.checks import (
-    InclineReading,
-    apply_level_trim,
-    beam_for_gm,
-    boarding,
-    crew_shift,
-    inclining_test,
-    level_trim,
-    sensitivity,
-    swamping,
-    waterline_from_freeboards,
-)
+from hydro.aids import apply_level_trim, beam_for_gm, level_trim
+from hydro.heel_checks import boarding, crew_shift
+from hydro.incline import InclineReading, inclining_test, waterline_from_freeboards
+from hydro.whatif import sensitivity, swamping
 from hydro.design import analyse
 
 RHO = 1000.0

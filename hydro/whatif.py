@@ -1,0 +1,132 @@
+"""What if: the readout under heavier crew, soaked materials and bilge water, and the
+reserve buoyancy and swamped state of the hull.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+from hydro.design import Design, analyse_stations, check_context
+from hydro.loads import HEAVY_CREW_MASS_KG, Material
+from hydro.stability import Analysis
+
+__all__ = ["MATERIAL_SWAMPED_DENSITY", "SensitivityRow", "SwampResult", "sensitivity", "swamping"]
+
+#: Effective density of shell materials once waterlogged (kg/m^3), for the swamped
+#: check.  All from memory / common practice: soaked corrugated board and tape sink,
+#: plywood and epoxy-sheathed plywood float slightly.
+MATERIAL_SWAMPED_DENSITY: dict[str, float] = {
+    "corrugated": 1100.0,
+    "tape": 1150.0,
+    "paint": 1400.0,
+    "plywood": 600.0,
+    "glass": 1800.0,
+    "foam": 40.0,
+}
+
+
+@dataclass(frozen=True)
+class SensitivityRow:
+    """The readout under one variation of the load."""
+
+    case: str
+    displacement: float | None
+    gm: float | None
+    min_freeboard: float | None
+    gunwale_immersion_deg: float | None
+    status: str
+
+
+def sensitivity(design: Design, wet_factor: float = 1.5, heavy_crew: float = HEAVY_CREW_MASS_KG,
+                bilge_depth: float = 0.03) -> tuple[SensitivityRow, ...]:
+    """GM, least freeboard and gunwale-immersion angle as built, soaked, with heavier
+    crew (46 CFR 170.090: 84 kg), with bilge water, and all three together."""
+    loads = design.loads
+    heavier = tuple(replace(c, mass=max(c.mass, heavy_crew)) for c in loads.crew)
+    cases = [
+        ("as designed", loads),
+        (f"soaked materials (x{wet_factor:g})", replace(loads, wet_factor=loads.wet_factor * wet_factor)),
+        (f"crew at {heavy_crew:g} kg each", replace(loads, crew=heavier)),
+        (f"{bilge_depth * 1000:.0f} mm bilge water", replace(loads, bilge_water_depth=loads.bilge_water_depth + bilge_depth)),
+        ("all three", replace(loads, wet_factor=loads.wet_factor * wet_factor, crew=heavier,
+                              bilge_water_depth=loads.bilge_water_depth + bilge_depth)),
+    ]
+    stations, table, rho = check_context(design)
+    rows = []
+    for name, ld in cases:
+        a = analyse_stations(stations, ld, rho, design.settings, table)
+        h, c = a.hydrostatics, a.curve
+        rows.append(SensitivityRow(
+            name, a.weights.mass,
+            h.gm if h else None,
+            h.min_freeboard if h else None,
+            c.gunwale_immersion_deg if c else None,
+            a.status,
+        ))
+    return tuple(rows)
+
+
+@dataclass(frozen=True)
+class SwampResult:
+    """Reserve buoyancy and what happens when the hull fills.
+
+    Attributes
+    ----------
+    reserve_volume : hull volume between the waterline and the gunwale (m^3) (for a
+        decked hull the deck is at the sheer, so this is also the reserve to the deck)
+    reserve_mass : rho x reserve volume (kg): how much more it could carry level
+    reserve_fraction : reserve / whole hull volume
+    swamped_net_buoyancy : buoyancy of the structure minus its weight when full of
+        water (kg, > 0 floats); crew are taken as neutrally buoyant swimmers
+    floats_swamped : bool, or None when the hull is closed (it cannot fill)
+    message : plain words, pointing to life jackets
+    """
+
+    reserve_volume: float
+    reserve_mass: float
+    reserve_fraction: float
+    swamped_net_buoyancy: float
+    floats_swamped: bool | None
+    message: str
+
+
+def _swamped_density(m: Material) -> float | None:
+    name = m.name.lower()
+    for key, rho in MATERIAL_SWAMPED_DENSITY.items():
+        if key in name:
+            return rho
+    return None
+
+
+def swamping(design: Design, analysis: Analysis | None = None) -> SwampResult:
+    """Reserve buoyancy to the gunwale, and whether the open hull floats when full.
+
+    Materials whose name says what they are (corrugated board, tape, paint, plywood,
+    glass, foam) take a waterlogged density from ``MATERIAL_SWAMPED_DENSITY``; others
+    and all items count as giving no buoyancy (the safe side).
+    """
+    stations, table, rho = check_context(design)
+    analysis = analysis or analyse_stations(stations, design.loads, rho, design.settings, table)
+    total = float(table.totals[0] @ table.weights)
+    h = analysis.hydrostatics
+    reserve = max(total - h.volume, 0.0) if h is not None else 0.0
+    net = 0.0
+    for line in analysis.weights.lines:
+        if line.kind == "material":
+            mat = next((m for m in design.loads.materials if m.name == line.name), None)
+            dens = _swamped_density(mat) if mat else None
+            net += line.mass * (rho / dens - 1.0) if dens else -line.mass
+        elif line.kind == "item":
+            net -= line.mass
+    closed = not design.settings.open_boat
+    if closed:
+        floats = None
+        msg = (f"Reserve buoyancy {rho * reserve:.0f} kg ({100 * reserve / total:.0f} % of the hull). "
+               "Closed hull: it cannot fill while its deck and seams hold; still wear life jackets.")
+    else:
+        floats = net > 0
+        msg = f"Reserve buoyancy to the gunwale {rho * reserve:.0f} kg ({100 * reserve / total:.0f} % of the hull). "
+        msg += ("Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
+                if floats else
+                "Swamped, the hull sinks: there is no flotation but the crew's life jackets - wear them.")
+    return SwampResult(reserve, rho * reserve, reserve / total if total else 0.0, net, floats, msg)
