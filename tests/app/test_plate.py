@@ -13,7 +13,7 @@ import pytest
 from PySide6.QtCore import QRectF
 from PySide6.QtGui import QFont, QFontDatabase, QFontInfo, QGuiApplication, QImage, QPainter
 
-from app import plate
+from app import plate, plate_content, plate_draw
 from app.cli import main as cli_main
 from app.plate import (
     FONT_FAMILY,
@@ -151,7 +151,7 @@ def test_each_sample_fills_every_panel_inside_the_margins(sample, gui_app):
         box = ink[int(r.top()) : int(r.bottom()), int(r.left()) : int(r.right())]
         assert box.mean() > 0.01, f"{name} panel looks blank"
     # white paper outside the sheet border, drawn 2 mm outside the panels' margin
-    margin = plate._type_sizes(PAPER_SIZES["A3"][0]).margin
+    margin = plate_draw.type_sizes(PAPER_SIZES["A3"][0]).margin
     band = round((margin - 2.0 - 0.5) / 25.4 * LOW_DPI)
     dark = _pixels(image) < 250
     assert not dark[:band].any() and not dark[-band:].any()
@@ -197,10 +197,10 @@ def test_metric_and_imperial_plates_differ(punt, gui_app):
 def test_a3_lines_use_a_standard_scale(punt, gui_app):
     design, analysis = punt
     _, layout = _paint(design, analysis)
-    assert layout.scales["lines"] in plate._METRIC_SCALES
+    assert layout.scales["lines"] in plate_content.METRIC_SCALES
     assert layout.scales["lines"] <= 25  # a 2.6 m punt fits A3 at 1:20 or larger
     _, imperial = _paint(design, analysis, units="imperial")
-    assert imperial.scales["lines"] in plate._IMPERIAL_SCALES
+    assert imperial.scales["lines"] in plate_content.IMPERIAL_SCALES
 
 
 # ----------------------------------------------------------------------------- marks
