@@ -29,7 +29,6 @@ from hydro import (
     HEAVY_CREW_MASS_KG,
     MATERIAL_PRESETS,
     MATERIAL_THICKNESS_M,
-    SEATED_CG_ABOVE_SEAT_M,
     WATER_PRESETS,
     Analysis,
     CrewMember,
@@ -38,20 +37,29 @@ from hydro import (
     Material,
 )
 
+from hydro.units import UnitSystem
+
 from app import style
 from app.document import HullDocument
+from app.length_box import LengthBox
 from app.load_table import Column, LoadTable
 from app.view_options import ViewOptions
 
 __all__ = ["LoadEditor"]
 
+
+def _density_text(rho: float, units: UnitSystem) -> str:
+    """A water density in the display units (kg/m³ or lb/ft³)."""
+    decimals = 0 if units.name == "metric" else 1
+    return f"{rho * units.density_factor:.{decimals}f} {units.density}"
+
 CREW_COLUMNS = (
     Column("Name", "name", "text"),
-    Column("Mass", "mass", "mass", f"Body mass (design figure {CREW_MASS_KG:g} kg per adult)"),
+    Column("Mass", "mass", "mass", "Body mass (use the design figure for an adult if unsure)"),
     Column("Seat at", "x", "length", "Seat position, measured forward from the aft end"),
     Column("Seat height", "seat_height", "length", "Seat surface above the inside of the bottom"),
     Column("CG above seat", "cg_above_seat", "length",
-           f"Seated centre of gravity above the seat (usual figure {SEATED_CG_ABOVE_SEAT_M * 1000:.0f} mm)"),
+           "Seated centre of gravity above the seat (a seated adult's is about a foot up)"),
     Column("Side offset", "y", "length", "Seat offset from the centreline, + to starboard"),
 )
 MATERIAL_COLUMNS = (
@@ -87,15 +95,15 @@ class LoadEditor(QWidget):
             table.rowsEdited.connect(lambda rows, text, f=field: self._edit_loads(text, **{f: rows}))
             table.invalidEntry.connect(self.document.notice.emit)
 
-        add_adult = QPushButton(f"Add adult ({CREW_MASS_KG:g} kg)")
-        add_adult.clicked.connect(lambda: self._add_crew(CREW_MASS_KG))
-        add_heavy = QPushButton(f"Add heavier adult ({HEAVY_CREW_MASS_KG:g} kg)")
-        add_heavy.clicked.connect(lambda: self._add_crew(HEAVY_CREW_MASS_KG))
-        crew_tab = self._table_tab(self.crew, [add_adult, add_heavy], "crew")
+        self.add_adult = QPushButton()
+        self.add_adult.clicked.connect(lambda: self._add_crew(CREW_MASS_KG))
+        self.add_heavy = QPushButton()
+        self.add_heavy.clicked.connect(lambda: self._add_crew(HEAVY_CREW_MASS_KG))
+        crew_tab = self._table_tab(self.crew, [self.add_adult, self.add_heavy], "crew")
 
         self.preset_box = QComboBox()
-        for name, (density, source) in MATERIAL_PRESETS.items():
-            self.preset_box.addItem(f"{name} ({density:g} kg/m² per layer)", name)
+        for name, (_density, source) in MATERIAL_PRESETS.items():
+            self.preset_box.addItem(name, name)
             self.preset_box.setItemData(
                 self.preset_box.count() - 1, f"Source: {source}", Qt.ItemDataRole.ToolTipRole
             )
@@ -147,18 +155,20 @@ class LoadEditor(QWidget):
         self.name_edit.setPlaceholderText("name of the boat or the team")
         self.name_edit.editingFinished.connect(self._on_name_typed)
         self.water_box = QComboBox()
-        for name, rho in WATER_PRESETS.items():
-            self.water_box.addItem(f"{name} water ({rho:g} kg/m³)", name)
+        for name in WATER_PRESETS:
+            self.water_box.addItem(f"{name} water", name)
         self.water_box.addItem(_CUSTOM_WATER, _CUSTOM_WATER)
         self.water_box.currentIndexChanged.connect(self._on_water_chosen)
         self.density_box = self._spin(500.0, 1500.0, 1, " kg/m³")
         self.density_box.editingFinished.connect(self._on_water_chosen)
-        self.bottom_box = self._spin(0.0, 1e4, 0, "")
+        self.bottom_box = LengthBox(0.0, 0.2, "bottom thickness")
         self.bottom_box.setToolTip("Thickness of the hull bottom; seats stand on its inside")
         self.bottom_box.editingFinished.connect(lambda: self._on_length_typed("bottom_thickness", self.bottom_box))
-        self.bilge_box = self._spin(0.0, 1e5, 0, "")
+        self.bilge_box = LengthBox(0.0, 1.0, "bilge water depth")
         self.bilge_box.setToolTip("Depth of loose water lying in the bottom (it slops to the low side)")
         self.bilge_box.editingFinished.connect(lambda: self._on_length_typed("bilge_water_depth", self.bilge_box))
+        for box in (self.bottom_box, self.bilge_box):
+            box.refused.connect(self.document.notice.emit)
         self.wet_box = self._spin(0.5, 5.0, 2, " ×")
         self.wet_box.setSingleStep(0.1)
         self.wet_box.setToolTip("Multiplies every material mass: 1.0 dry; soaked cardboard 1.5 or more")
@@ -199,6 +209,14 @@ class LoadEditor(QWidget):
         self.crew.show_items(loads.crew, units)
         self.materials.show_items(loads.materials, units)
         self.items.show_items(loads.items, units)
+        self.add_adult.setText(f"Add adult ({units.mass_text(CREW_MASS_KG)})")
+        self.add_heavy.setText(f"Add heavier adult ({units.mass_text(HEAVY_CREW_MASS_KG)})")
+        for i, (density, _source) in enumerate(MATERIAL_PRESETS.values()):
+            name = self.preset_box.itemData(i)
+            self.preset_box.setItemText(i, f"{name} ({units.areal_text(density)} per layer)")
+        for i, rho in enumerate(WATER_PRESETS.values()):
+            name = self.water_box.itemData(i)
+            self.water_box.setItemText(i, f"{name} water ({_density_text(rho, units)})")
         with QSignalBlocker(self.name_edit):
             self.name_edit.setText(design.name)
         with QSignalBlocker(self.water_box), QSignalBlocker(self.density_box):
@@ -206,19 +224,23 @@ class LoadEditor(QWidget):
             index = self.water_box.findData(preset if preset in WATER_PRESETS else _CUSTOM_WATER)
             self.water_box.setCurrentIndex(index)
             self.density_box.setEnabled(preset not in WATER_PRESETS)
+            self.density_box.setSuffix(f" {units.density}")
+            f = units.density_factor
+            self.density_box.setRange(500.0 * f, 1500.0 * f)
+            self.density_box.setDecimals(1 if units.name == "metric" else 2)
             try:
-                self.density_box.setValue(design.water_density)
+                self.density_box.setValue(design.water_density * f)
             except ValueError:
                 pass
         for box, metres in ((self.bottom_box, loads.bottom_thickness), (self.bilge_box, loads.bilge_water_depth)):
-            with QSignalBlocker(box):
-                box.setDecimals(units.length_decimals)
-                box.setSuffix(f" {units.length}")
-                box.setValue(units.to_length(metres))
+            box.set_units(units)
+            box.set_metres(metres)
         with QSignalBlocker(self.wet_box):
             self.wet_box.setValue(loads.wet_factor)
         with QSignalBlocker(self.open_box):
             self.open_box.setChecked(design.settings.open_boat)
+        if self.document.analysis is not None:
+            self.show_totals(self.document.analysis)
 
     def show_totals(self, analysis: Analysis) -> None:
         """Mass by kind from the weight build-up."""
@@ -281,16 +303,15 @@ class LoadEditor(QWidget):
     def _on_water_chosen(self) -> None:
         choice = self.water_box.currentData()
         self.density_box.setEnabled(choice == _CUSTOM_WATER)
-        water = self.density_box.value() if choice == _CUSTOM_WATER else choice
+        typed = self.density_box.value() / self.options.units.density_factor
+        water = round(typed, 1) if choice == _CUSTOM_WATER else choice
         design = self.document.committed
         if water != design.water:
             self._edit(replace(design, water=water), "Change water")
 
-    def _on_length_typed(self, field: str, box: QDoubleSpinBox) -> None:
-        units = self.options.units
-        shown = round(units.to_length(getattr(self.document.committed.loads, field)), box.decimals())
-        if box.value() != shown:  # leaving the box unchanged is not an edit
-            self._edit_loads(f"Edit {field.replace('_', ' ')}", **{field: units.from_length(box.value())})
+    def _on_length_typed(self, field: str, box: LengthBox) -> None:
+        if abs(box.metres() - getattr(self.document.committed.loads, field)) > 1e-6:
+            self._edit_loads(f"Edit {field.replace('_', ' ')}", **{field: box.metres()})
 
     def _on_open_toggled(self, on: bool) -> None:
         design = self.document.committed

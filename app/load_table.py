@@ -14,14 +14,17 @@ from typing import Any
 from PySide6.QtCore import QSignalBlocker, Qt, Signal
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableWidget, QTableWidgetItem
 
-from hydro.units import UnitSystem
+from hydro.units import LengthError, UnitSystem
 
 __all__ = ["Column", "LoadTable", "areal_factor"]
 
+#: A load's position or height beyond this (m) is a typing slip, not a boat.
+PLAUSIBLE_M = 30.0
+
 
 def areal_factor(units: UnitSystem) -> float:
-    """Display units of areal density per kg/m^2 (1 in metric, lb/ft^2 in imperial)."""
-    return units.to_mass(1.0) / units.to_area(1.0)
+    """Display units of areal density per kg/m^2 (1 in metric, oz/yd^2 in imperial)."""
+    return units.areal_factor
 
 
 @dataclass(frozen=True)
@@ -43,7 +46,7 @@ class Column:
         if self.kind == "length":
             return units.length
         if self.kind == "areal":
-            return "kg/m²" if units.name == "metric" else "lb/ft²"
+            return units.areal
         return ""
 
 
@@ -108,7 +111,7 @@ class LoadTable(QTableWidget):
         elif col.kind == "length":
             item.setText(units.length_text(value, unit=False))
         elif col.kind == "areal":
-            item.setText(f"{value * areal_factor(units):.3f}")
+            item.setText(units.areal_text(value, unit=False))
         else:
             item.setText(f"{value:g}")
         return item
@@ -117,13 +120,13 @@ class LoadTable(QTableWidget):
         units = self._units
         if col.kind == "text":
             return text.strip() or self.noun
+        if col.kind == "length":
+            return units.parse_length(text, -PLAUSIBLE_M, PLAUSIBLE_M, col.header)
         value = float(text.strip().replace(",", "."))
         if not math.isfinite(value):
             raise ValueError
         if col.kind == "mass":
             return units.from_mass(value)
-        if col.kind == "length":
-            return units.from_length(value)
         if col.kind == "areal":
             return value / areal_factor(units)
         return value
@@ -144,6 +147,10 @@ class LoadTable(QTableWidget):
         else:
             try:
                 new = replace(obj, **{col.attr: self._parse(col, item.text())})
+            except LengthError as e:
+                self.invalidEntry.emit(f"Not changed: {e}")
+                self.show_items(self._items, self._units)
+                return
             except ValueError:
                 self.invalidEntry.emit(f"'{item.text()}' is not a number: {col.header.lower()} not changed")
                 self.show_items(self._items, self._units)

@@ -4,13 +4,14 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from PySide6.QtCore import QSignalBlocker, Qt
-from PySide6.QtWidgets import QDoubleSpinBox, QHBoxLayout, QLabel, QPushButton, QSizePolicy, QWidget
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QHBoxLayout, QLabel, QPushButton, QSizePolicy, QWidget
 
 from hydro import HullSketch
 
 from app import editing, style
 from app.document import HullDocument
+from app.length_box import LengthBox
 from app.view_options import ViewOptions
 
 __all__ = ["PointEntry"]
@@ -21,6 +22,9 @@ _AXES = {
     "sheer": ("x", "sheer height"),
     "section": ("out", "height"),
 }
+#: Plausible coordinates of a control point (m): along the hull, and across or up.
+_ALONG = (-5.0, 40.0)
+_ACROSS = (-5.0, 10.0)
 
 
 class PointEntry(QWidget):
@@ -37,7 +41,8 @@ class PointEntry(QWidget):
         for label in (self.first_label, self.second_label):
             label.setFixedWidth(self.fontMetrics().horizontalAdvance("half-breadth") + 8)
             label.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
-        self.first, self.second = self._box(), self._box()
+        self.first = self._box(_ALONG, "first coordinate")
+        self.second = self._box(_ACROSS, "second coordinate")
         self.remove = QPushButton("Remove point")
         self.remove.setToolTip("Remove the selected point (Delete)")
         self.remove.clicked.connect(self.document.remove_selected_point)
@@ -53,12 +58,11 @@ class PointEntry(QWidget):
             signal.connect(self.refresh)
         self.refresh()
 
-    def _box(self) -> QDoubleSpinBox:
-        box = QDoubleSpinBox()
-        box.setRange(-1e5, 1e5)
-        box.setKeyboardTracking(False)
-        box.setMinimumWidth(110)
+    def _box(self, span: tuple[float, float], what: str) -> LengthBox:
+        box = LengthBox(*span, what, self.options.units)
+        box.setMinimumWidth(130)
         box.editingFinished.connect(self._apply)
+        box.refused.connect(self.document.notice.emit)
         return box
 
     def refresh(self) -> None:
@@ -80,24 +84,20 @@ class PointEntry(QWidget):
         self.second_label.setText(second)
         a, b = editing.point_position(hull, ref)
         for box, metres in ((self.first, a), (self.second, b)):
-            with QSignalBlocker(box):
-                if box.decimals() != units.length_decimals:  # each set re-lays out the row
-                    box.setDecimals(units.length_decimals)
-                if box.suffix() != f" {units.length}":
-                    box.setSuffix(f" {units.length}")
-                box.setValue(units.to_length(metres))
+            box.set_units(units)
+            box.set_metres(metres)
 
     def _apply(self) -> None:
         ref = self.document.selection
         hull = self.document.committed.hull
         if ref is None or not isinstance(hull, HullSketch) or self.document.is_previewing:
             return
-        units = self.options.units
         old = editing.point_position(hull, ref)
-        typed = []
-        for box, metres in ((self.first, old[0]), (self.second, old[1])):
-            unchanged = box.value() == round(units.to_length(metres), box.decimals())
-            typed.append(metres if unchanged else units.from_length(box.value()))
+        # the boxes hold micrometres: a box left alone keeps the exact coordinate
+        typed = [
+            was if abs(box.metres() - was) < 1e-6 else box.metres()
+            for box, was in ((self.first, old[0]), (self.second, old[1]))
+        ]
         if typed[0] == old[0] and typed[1] == old[1]:
             return
         move = editing.move_point(hull, ref, *typed)

@@ -12,7 +12,7 @@ from dataclasses import replace
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QRectF, QSignalBlocker
-from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QHBoxLayout, QToolButton
+from PySide6.QtWidgets import QCheckBox, QComboBox, QHBoxLayout, QToolButton
 
 from hydro import Analysis, HullSketch, Stations
 from hydro.curves import sample_polyline
@@ -23,6 +23,7 @@ from app.control_points import ControlPoints
 from app.document import HullDocument
 from app.drawing import OutlineItem
 from app.editing import EditRefused, PointRef
+from app.length_box import LengthBox
 from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
 from app.view_options import ViewOptions
@@ -45,11 +46,13 @@ class SectionView(SketchView):
         self.shape_box = QComboBox()
         self.shape_box.setToolTip("Which section shape to edit")
         self.shape_box.currentIndexChanged.connect(self._on_shape_chosen)
-        self.station_box = QDoubleSpinBox()
-        self.station_box.setKeyboardTracking(False)
-        self.station_box.setRange(-1e5, 1e5)
-        self.station_box.setToolTip("Station of this shape (length from the aft end)")
+        self.station_box = LengthBox(-5.0, 40.0, "station of this shape", options.units)
+        self.station_box.setToolTip(
+            "Station of this shape (length from the aft end); type e.g. 1.2 m or 47 1/4"
+        )
         self.station_box.setPrefix("at x = ")
+        self.station_box.setMinimumWidth(150)
+        self.station_box.refused.connect(document.notice.emit)
         self.station_box.editingFinished.connect(self._on_station_typed)
         self.smooth_box = QCheckBox("smooth")
         self.smooth_box.setToolTip("Smooth curve through the points, or hard chines (straight panels)")
@@ -122,9 +125,9 @@ class SectionView(SketchView):
         sketch = self.sketch()
         if sketch is None:
             return
-        x = self.options.units.from_length(self.station_box.value())
+        x = self.station_box.metres()
         shape = sketch.sections[self.shape_index]
-        if abs(x - shape.x) < 1e-9:
+        if abs(x - shape.x) < 1e-6:  # the box holds micrometres
             return
         sections = list(sketch.sections)
         sections[self.shape_index] = replace(shape, x=x)
@@ -180,11 +183,8 @@ class SectionView(SketchView):
                 self.shape_box.addItems([f"shape {i + 1} of {n}" for i in range(n)])
             self.shape_box.setCurrentIndex(self.shape_index)
         with QSignalBlocker(self.station_box):
-            if self.station_box.decimals() != units.length_decimals:  # each set re-lays out the header
-                self.station_box.setDecimals(units.length_decimals)
-            if self.station_box.suffix() != f" {units.length}":
-                self.station_box.setSuffix(f" {units.length}")
-            self.station_box.setValue(units.to_length(sketch.sections[self.shape_index].x))
+            self.station_box.set_units(units)
+            self.station_box.set_metres(sketch.sections[self.shape_index].x)
         with QSignalBlocker(self.smooth_box):
             self.smooth_box.setChecked(sketch.sections[self.shape_index].smooth)
 

@@ -4,6 +4,8 @@ import sys
 from dataclasses import replace
 
 import pytest
+
+from hydro.units import parse_length
 from PySide6.QtWidgets import QMessageBox
 
 from hydro import load_design
@@ -127,7 +129,8 @@ def test_units_switch_changes_no_value_and_is_remembered(qtbot):
     assert window.document.committed is design
     assert not window.document.is_modified
     assert window.results.units["draft"].text() == "in"
-    assert float(_readout(window)["draft"]) == pytest.approx(float(metric) / 25.4, abs=0.03)
+    shown = parse_length(_readout(window)["draft"], "in")  # fractions to 1/16 inch
+    assert shown == pytest.approx(float(metric) / 1000, abs=0.0254 / 32)
     assert window.settings.value("units") == "imperial"
     window.unit_actions["metric"].trigger()
     assert _readout(window)["draft"] == metric

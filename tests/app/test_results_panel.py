@@ -5,6 +5,8 @@ from dataclasses import replace
 import numpy as np
 import pytest
 
+from hydro.units import parse_length
+
 from hydro import MassItem, analyse
 
 from app.document import HullDocument
@@ -49,7 +51,10 @@ def test_table_shows_fixed_digits_in_the_chosen_units(qtbot):
     assert panel.units["gm"].text() == "mm"
     assert panel.values["displacement"].text() == f"{hs.displacement:.1f}"
     options.set_units("imperial")
-    assert panel.values["gm"].text() == f"{hs.gm / 0.0254:.2f}"
+    sixteenths = round(hs.gm / 0.0254 * 16)  # tape-measure fractions, never decimals
+    assert parse_length(panel.values["gm"].text(), "in") == pytest.approx(sixteenths / 16 * 0.0254)
+    assert "." not in panel.values["gm"].text()
+    assert panel.values["displacement"].text() == f"{hs.displacement / 0.45359237:.0f}"
     assert panel.units["gm"].text() == "in"
     assert panel.gz_plot.getAxis("left").labelText == "GZ (in)"
     assert doc.committed == design

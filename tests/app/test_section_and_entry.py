@@ -59,13 +59,13 @@ def test_typed_coordinates_move_the_selected_point(section, qtbot):
     doc, _view, entry, options = section
     doc.select(PointRef("section", 1))
     assert entry.first.isEnabled()
-    entry.first.setValue(300.0)  # mm out from the centreline
+    entry.first.setValue(0.300)  # metres out from the centreline
     entry.first.editingFinished.emit()
     y, _z = editing.point_position(doc.committed.hull, PointRef("section", 1))
     assert y == pytest.approx(0.300)
     options.set_units("imperial")
-    assert entry.first.suffix() == " in"
-    assert entry.first.value() == pytest.approx(0.300 / 0.0254, abs=0.01)
+    assert entry.first.text() == "11 13/16 in"  # 11.811 in to the nearest 1/16
+    assert entry.first.metres() == pytest.approx(0.300)
 
 
 def test_the_gunwale_point_cannot_be_dragged_but_says_why(section, qtbot):
