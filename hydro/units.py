@@ -334,11 +334,13 @@ def _read(s: str, default_unit: str, what: str, raw: str) -> float:
     sign = 1.0
     m = _FIE.match(s)
     if m:
-        inches = int(m["i"])
-        if inches >= 12:
-            raise LengthError(f"{what}: '{raw}' has {inches} inches; feet-inches-eighths need 0-11")
+        whole_inches = int(m["i"])
+        if whole_inches >= 12:
+            raise LengthError(
+                f"{what}: '{raw}' has {whole_inches} inches; feet-inches-eighths need 0-11"
+            )
         eighths = int(m["e"]) + (0.5 if m["plus"] else 0.0)
-        return (int(m["f"]) * 12 + inches + eighths / 8) * M_PER_IN
+        return (int(m["f"]) * 12 + whole_inches + eighths / 8) * M_PER_IN
     if s.startswith("-"):
         sign, s = -1.0, s[1:].lstrip()
     elif s.startswith("+"):
