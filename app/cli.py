@@ -1,4 +1,7 @@
-"""The ``hullwright`` command line: report, offsets, plate, open.
+"""The ``hullwright`` command line: report, offsets, plate, check, incline, resize, open.
+
+Every length may be typed as in the app: a plain number is in metres, or give a unit
+and fractions ("3.6 m", "360 cm", "141 3/4 in", "11' 9 3/4\"", "2-04-3").
 
 Every bad input ends with a one-line message on stderr and exit code 2, and nothing is
 written.  Only ``plate`` and ``open`` load Qt.
@@ -26,12 +29,15 @@ from hydro import (
     load_design,
     read_offsets,
     report_dict,
+    save_design,
     write_offsets,
 )
 from hydro import aids, heel_checks, incline, whatif
 from hydro.io import read_incline_readings
 from hydro.loads import water_density
+from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
+from hydro.units import LengthError, parse_length, system
 from hydro.stability import Analysis
 
 EXIT_BAD_INPUT = 2
@@ -39,6 +45,29 @@ EXIT_BAD_INPUT = 2
 
 class BadInput(Exception):
     """A problem with what the user asked for (message shown as is)."""
+
+
+def _length(text: str | None, what: str, low: float, high: float) -> float | None:
+    """A length as a builder types it (plain numbers in metres); None stays None."""
+    if text is None:
+        return None
+    try:
+        return parse_length(text, "m", low, high, what)
+    except LengthError as e:
+        raise BadInput(str(e)) from None
+
+
+def _lengths(text: str, count: int, what: str) -> tuple[float, ...]:
+    """``count`` comma-separated lengths (plain numbers in metres)."""
+    parts = text.split(",")
+    if len(parts) != count:
+        names = "three numbers" if count == 3 else "two numbers"
+        raise BadInput(f"{what.split()[0]} must be {names} {what.split()[-1]} (lengths: plain "
+                       "numbers in metres, or with a unit)")
+    try:
+        return tuple(parse_length(v, "m", -100.0, 100.0, what) for v in parts)
+    except LengthError as e:
+        raise BadInput(str(e)) from None
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -57,6 +86,8 @@ def _parser() -> argparse.ArgumentParser:
     r.add_argument("--heel-step", type=float, help="heel step in degrees (default 1)")
     r.add_argument("--heel-max", type=float, help="largest heel in degrees (default 90)")
     r.add_argument("--json", action="store_true", help="print SI values as JSON")
+    r.add_argument("--units", choices=["si", "metric", "imperial"], default="si",
+                   help="lengths in metres (si), millimetres (metric) or inches and fractions")
     o = sub.add_parser("offsets", help="write the table of offsets of a design as CSV")
     o.add_argument("design")
     o.add_argument("-o", "--output", required=True, help="CSV file to write")
@@ -70,10 +101,12 @@ def _parser() -> argparse.ArgumentParser:
     ck.add_argument("design")
     ck.add_argument("--crew", help="crew to shift, by number from 1 (default: all), e.g. 1,2")
     group = ck.add_mutually_exclusive_group()
-    group.add_argument("--distance", type=float, help="shift each by this many metres (default: to the side at seat height)")
+    group.add_argument("--distance", metavar="LENGTH",
+                       help="shift each by this length (default: to the side at seat height)")
     group.add_argument("--gunwale", action="store_true", help="shift them onto the gunwale")
     ck.add_argument("--boarding-mass", type=float, default=75.0, help="person climbing aboard, kg (default 75)")
-    ck.add_argument("--target-gm", type=float, default=None, help="target GM for the beam aid, m (default 0.15)")
+    ck.add_argument("--target-gm", metavar="LENGTH", default=None,
+                    help="target GM for the beam aid (default 0.15 m)")
     ck.add_argument("--json", action="store_true")
     inc = sub.add_parser("incline", help="measured GM and KG from an inclining test of the built boat")
     inc.add_argument("design")
@@ -83,6 +116,12 @@ def _parser() -> argparse.ArgumentParser:
     how.add_argument("--freeboards", help="measured freeboards AFT,FORE in metres")
     inc.add_argument("--no-correction", action="store_true", help="skip the wall-sided correction")
     inc.add_argument("--json", action="store_true")
+    rs = sub.add_parser("resize", help="a design rescaled to a new length, beam or depth, same shape")
+    rs.add_argument("design")
+    rs.add_argument("--length", metavar="LENGTH", help="overall length")
+    rs.add_argument("--beam", metavar="LENGTH", help="beam at the gunwale")
+    rs.add_argument("--depth", metavar="LENGTH", help="depth at mid-length")
+    rs.add_argument("-o", "--output", required=True, help="NEW.json to write")
     op = sub.add_parser("open", help="open the desktop app")
     op.add_argument("design", nargs="?")
     return p
@@ -102,12 +141,7 @@ def _lumped_load(args: argparse.Namespace) -> Loads:
         raise BadInput("--offsets needs --mass KG and --cg X,Y,Z")
     if not math.isfinite(args.mass) or args.mass <= 0:
         raise BadInput("--mass must be a positive number of kilograms")
-    try:
-        x, y, z = (float(v) for v in args.cg.split(","))
-    except ValueError:
-        raise BadInput("--cg must be three numbers X,Y,Z in metres, e.g. 1.2,0,0.3") from None
-    if not all(math.isfinite(v) for v in (x, y, z)):
-        raise BadInput("--cg must be finite numbers")
+    x, y, z = _lengths(args.cg, 3, "--cg X,Y,Z")
     return Loads(items=(MassItem("lumped load", args.mass, x, y, z),))
 
 
@@ -137,55 +171,84 @@ def _fmt(v: float | None, digits: int = 3, unit: str = "") -> str:
     return f"{v:.{digits}f}{(' ' + unit) if unit else ''}"
 
 
-def format_report(a: Analysis, name: str) -> str:
-    """Readable text table of an analysis (metres, kilograms, degrees)."""
+def format_report(a: Analysis, name: str, units: str = "si") -> str:
+    """Readable text table of an analysis.
+
+    ``units``: "si" (metres, kilograms), "metric" (millimetres, kilograms) or
+    "imperial" (inches to 1/16, pounds); angles are always in degrees.
+    """
+    u = None if units == "si" else system(units)
+
+    def L(v: float | None, digits: int = 3) -> str:  # a length
+        if v is None or not math.isfinite(v):
+            return "-"
+        return f"{v:.{digits}f} m" if u is None else u.length_text(v)
+
+    def M(v: float) -> str:  # a mass
+        return f"{v:.1f} kg" if u is None else u.mass_text(v)
+
     lines = [f"Hullwright report: {name}", f"Status: {a.message}", ""]
     w = a.weights
-    lines.append(f"{'Displacement':<28}{w.mass:.1f} kg")
-    lines.append(f"{'LCG / TCG':<28}{w.lcg:.3f} / {w.tcg:.3f} m")
+    lines.append(f"{'Displacement':<28}{M(w.mass)}")
+    lines.append(f"{'LCG / TCG':<28}{L(w.lcg)} / {L(w.tcg)}")
     h = a.hydrostatics
     rows: list[tuple[str, str]] = []
     if h is not None:
+        trim_words = "level" if abs(h.trim_deg) < 0.005 else (
+            f"{abs(h.trim_deg):.2f} deg by the {'bow' if h.trim_deg > 0 else 'stern'}"
+        )
         rows += [
-            ("Water density", f"{h.water_density:.1f} kg/m3"),
-            ("Volume", f"{h.volume:.4f} m3"),
-            ("Draft aft / mid / fore", f"{h.draft_aft:.3f} / {h.draft_mid:.3f} / {h.draft_fore:.3f} m"),
-            ("Trim (+ bow down)", f"{h.trim_deg:.2f} deg ({h.trim * 1000:.0f} mm)"),
-            ("Least freeboard", f"{h.min_freeboard:.3f} m at x = {h.min_freeboard_x:.2f} m"),
-            ("KB", _fmt(h.kb, 3, "m")),
-            ("BM", _fmt(h.bm, 3, "m")),
-            ("KM", _fmt(h.km, 3, "m")),
-            ("KG", _fmt(h.kg, 3, "m")),
-            ("GM (solid)", _fmt(h.gm_solid, 3, "m")),
-            ("Free-surface correction", _fmt(h.fsc, 3, "m")),
-            ("GM", _fmt(h.gm, 3, "m")),
-            ("BM_L / GM_L", f"{h.bm_l:.2f} / {h.gm_l:.2f} m"),
-            ("LCB / LCF", f"{h.lcb:.3f} / {h.lcf:.3f} m"),
-            ("Waterplane area", _fmt(h.waterplane_area, 3, "m2")),
-            ("LWL x BWL", f"{h.lwl:.3f} x {h.bwl:.3f} m"),
+            ("Water density", f"{h.water_density:.1f} kg/m3" if u is None else
+             f"{h.water_density * u.density_factor:.1f} {u.density}"),
+            ("Volume", f"{h.volume:.4f} m3" if u is None else
+             f"{u.to_volume(h.volume):.2f} {'L' if u.name == 'metric' else 'ft3'}"),
+            ("Draft aft / mid / fore", f"{L(h.draft_aft)} / {L(h.draft_mid)} / {L(h.draft_fore)}"),
+            ("Trim", f"{trim_words} ({L(abs(h.trim), 3)} over the length)"),
+            ("Least freeboard", f"{L(h.min_freeboard)} at x = {L(h.min_freeboard_x, 2)}"),
+            ("KB", L(h.kb)),
+            ("BM", L(h.bm)),
+            ("KM", L(h.km)),
+            ("KG", L(h.kg)),
+            ("GM (solid)", L(h.gm_solid)),
+            ("Free-surface correction", L(h.fsc)),
+            ("GM", L(h.gm)),
+            ("BM_L / GM_L", f"{L(h.bm_l, 2)} / {L(h.gm_l, 2)}"),
+            ("LCB / LCF", f"{L(h.lcb)} / {L(h.lcf)}"),
+            ("Waterplane area", _fmt(h.waterplane_area, 3, "m2") if u is None else
+             f"{u.to_area(h.waterplane_area):.2f} {u.area}"),
+            ("LWL x BWL", f"{L(h.lwl)} x {L(h.bwl)}"),
             ("Cb / Cp / Cm / Cwp", f"{_fmt(h.cb)} / {_fmt(h.cp)} / {_fmt(h.cm)} / {_fmt(h.cwp)}"),
-            ("Immersion", f"{h.immersion_kg_per_cm:.1f} kg/cm"),
+            ("Immersion", f"{h.immersion_kg_per_cm:.1f} kg/cm" if u is None or not u.imperial else
+             f"{h.immersion_kg_per_cm * 2.54 / 0.45359237:.0f} lb/in"),
             ("Moment to trim 1 cm", f"{h.mct_1cm:.2f} kg m/cm"),
         ]
+        if u is not None and u.imperial:
+            rows.pop()  # no metric moment unit in an imperial report
     c = a.curve
     if c is not None:
         rows += [
             ("Gunwale under at", _fmt(c.gunwale_immersion_deg, 1, "deg")),
-            ("Max GZ", f"{_fmt(c.max_gz, 3, 'm')} at {c.max_gz_deg:.0f} deg"),
+            ("Max GZ", f"{L(c.max_gz)} at {c.max_gz_deg:.0f} deg"),
             ("Vanishing stability", _fmt(c.avs_deg, 1, "deg") if c.avs_deg is not None else f"beyond {c.heel_deg[-1]:.0f} deg"),
-            ("Area to 30 / 40 deg", f"{_fmt(c.area_30, 4)} / {_fmt(c.area_40, 4)} m rad"),
-            ("Area to gunwale", _fmt(c.area_to_gunwale, 4, "m rad")),
         ]
+        if u is None:
+            rows += [
+                ("Area to 30 / 40 deg", f"{_fmt(c.area_30, 4)} / {_fmt(c.area_40, 4)} m rad"),
+                ("Area to gunwale", _fmt(c.area_to_gunwale, 4, "m rad")),
+            ]
         if c.loll_deg is not None:
             rows.append(("Angle of loll", _fmt(c.loll_deg, 1, "deg")))
     lines += [f"{k:<28}{v}" for k, v in rows]
     if c is not None:
-        lines += ["", "  heel   GZ (m)  wall-sided (m)   trim (deg)"]
+        unit = "m" if u is None else u.length
+        lines += ["", f"  heel   {'GZ (' + unit + ')':>10}  {'wall-sided (' + unit + ')':>16}   trim (deg)"]
         step = max(1, int(round(5.0 / max(float(np.diff(c.heel_deg[:2])[0]), 1e-9)))) if c.heel_deg.size > 1 else 1
         for i in range(0, c.heel_deg.size, step):
-            lines.append(
-                f"  {c.heel_deg[i]:5.1f}  {_fmt(c.gz[i], 4):>7}  {_fmt(c.wall_sided[i], 4):>14}  {_fmt(c.trim_deg[i], 2):>11}"
+            gz, ws = (
+                (_fmt(c.gz[i], 4), _fmt(c.wall_sided[i], 4)) if u is None
+                else (u.length_text(c.gz[i], unit=False), u.length_text(c.wall_sided[i], unit=False))
             )
+            lines.append(f"  {c.heel_deg[i]:5.1f}  {gz:>10}  {ws:>16}  {_fmt(c.trim_deg[i], 2):>11}")
     lines += ["", "A design aid, not a certification: wear life jackets, test in shallow water",
               "with helpers, follow the event's rules and local regulations."]
     return "\n".join(lines)
@@ -210,11 +273,12 @@ def _check(args: argparse.Namespace) -> None:
     analysis = analyse(design)
     if analysis.hydrostatics is None:
         raise BadInput(analysis.message)
-    shift = heel_checks.crew_shift(design, members, args.distance, args.gunwale, analysis)
+    distance = _length(args.distance, "--distance", 0.0, 20.0)
+    shift = heel_checks.crew_shift(design, members, distance, args.gunwale, analysis)
     board = heel_checks.boarding(design, args.boarding_mass)
     trims = [aids.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
     beam = (
-        aids.beam_for_gm(design, args.target_gm if args.target_gm is not None else aids.TARGET_GM_M)
+        aids.beam_for_gm(design, _length(args.target_gm, "--target-gm", 0.001, 5.0) or aids.TARGET_GM_M)
         if isinstance(design.hull, HullSketch)
         else None
     )
@@ -267,10 +331,7 @@ def _incline(args: argparse.Namespace) -> None:
     readings = read_incline_readings(args.readings)
     freeboards = None
     if args.freeboards:
-        try:
-            aft, fore = (float(v) for v in args.freeboards.split(","))
-        except ValueError:
-            raise BadInput("--freeboards must be two numbers AFT,FORE in metres") from None
+        aft, fore = _lengths(args.freeboards, 2, "--freeboards AFT,FORE")
         freeboards = (aft, fore)
     res = incline.inclining_test(design, readings, args.mass, freeboards, not args.no_correction)
     if args.json:
@@ -312,6 +373,23 @@ def _plate(args: argparse.Namespace) -> None:
     render_plate_file(design, out, paper=paper, dpi=args.dpi, units=args.units, source=Path(args.design).name)
 
 
+def _resize(args: argparse.Namespace) -> None:
+    if args.length is None and args.beam is None and args.depth is None:
+        raise BadInput("give at least one of --length, --beam, --depth")
+    length = _length(args.length, "--length", 0.3, 40.0)
+    beam = _length(args.beam, "--beam", 0.05, 20.0)
+    depth = _length(args.depth, "--depth", 0.02, 5.0)
+    out = Path(args.output)
+    if out.suffix.lower() != ".json":
+        raise BadInput("the new design file must end in .json")
+    if not out.parent.exists():
+        raise BadInput(f"folder {out.parent} does not exist")
+    if out.exists() and out.resolve() == Path(args.design).resolve():
+        raise BadInput("write the resized design to a new file, not over the original")
+    design = load_design(args.design)
+    save_design(resize_design(design, length, beam, depth), out)
+
+
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
     keep_freed_memory()
@@ -321,7 +399,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             if args.json:
                 print(json.dumps(report_dict(analysis, name), indent=2, allow_nan=False))
             else:
-                print(format_report(analysis, name))
+                print(format_report(analysis, name, args.units))
         elif args.command == "offsets":
             _offsets(args)
         elif args.command == "check":
@@ -330,6 +408,8 @@ def main(argv: Sequence[str] | None = None) -> int:
             _incline(args)
         elif args.command == "plate":
             _plate(args)
+        elif args.command == "resize":
+            _resize(args)
         elif args.command == "open":
             from app.main import main as gui_main
 

@@ -2,6 +2,7 @@
 
 import json
 
+import numpy as np
 import pytest
 
 from app.cli import main
@@ -123,3 +124,56 @@ def test_incline_command(tmp_path, capsys):
     readings.write_text("weight,where\n1,2\n")
     assert main(["incline", PUNT, str(readings), "--mass", "60"]) == 2
     assert "must name the columns" in capsys.readouterr().err
+
+
+def test_resize_round_trips(tmp_path):
+    src = SAMPLES / "heron-punt.json"
+    bigger, back = tmp_path / "bigger.json", tmp_path / "back.json"
+    assert main(["resize", str(src), "--length", "12 ft", "--beam", "3' 6\"", "--depth", "45 cm",
+                 "-o", str(bigger)]) == 0
+    design = load_design(bigger)
+    assert design.hull.length == pytest.approx(12 * 0.3048, abs=1e-12)
+    assert 2 * max(b for _x, b in design.hull.plan.points) == pytest.approx(42 * 0.0254, abs=1e-12)
+    original = load_design(src)
+    assert main(["resize", str(bigger), "--length", "2.6", "--beam", "960 mm", "--depth", "0.4",
+                 "-o", str(back)]) == 0
+    again = load_design(back)
+    for name in ("plan", "keel", "sheer"):
+        assert np.allclose(getattr(again.hull, name).points, getattr(original.hull, name).points,
+                           atol=1e-12)
+    for a, b in zip(again.hull.sections, original.hull.sections):
+        assert np.allclose(a.points, b.points, atol=1e-12) and a.x == pytest.approx(b.x)
+    assert [c.x for c in again.loads.crew] == pytest.approx([c.x for c in original.loads.crew])
+
+
+@pytest.mark.parametrize(
+    "extra, words",
+    [
+        (["--beam", "3,5"], "comma"),
+        (["--beam", "wide"], "cannot read"),
+        (["--length", "14134 in"], "more than the plausible"),
+        ([], "at least one of"),
+    ],
+)
+def test_resize_refuses_bad_lengths(tmp_path, capsys, extra, words):
+    out = tmp_path / "new.json"
+    assert main(["resize", str(SAMPLES / "heron-punt.json"), *extra, "-o", str(out)]) == 2
+    assert words in capsys.readouterr().err
+    assert not out.exists()
+
+
+def test_resize_will_not_overwrite_its_source(tmp_path, capsys):
+    src = tmp_path / "punt.json"
+    src.write_bytes((SAMPLES / "heron-punt.json").read_bytes())
+    before = src.read_bytes()
+    assert main(["resize", str(src), "--beam", "1 m", "-o", str(src)]) == 2
+    assert "new file" in capsys.readouterr().err
+    assert src.read_bytes() == before
+
+
+def test_report_in_feet_and_inches_has_no_decimal_lengths(capsys):
+    assert main(["report", str(SAMPLES / "paper-loon-canoe.json"), "--units", "imperial"]) == 0
+    out = capsys.readouterr().out
+    gm = next(line for line in out.splitlines() if line.startswith("GM "))
+    assert gm.rstrip().endswith(" in") and "." not in gm
+    assert " mm" not in out and " kg" not in out
