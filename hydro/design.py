@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from hydro.errors import HullwrightError, ShapeError
+from hydro.limits import check_work
 from hydro.hull import HullSketch, Stations, generate_stations
 from hydro.loads import (
     CREW_MASS_KG,
@@ -162,10 +163,14 @@ def analyse_stations(
     >>> round(float(a.hydrostatics.draft_mid), 6), round(a.hydrostatics.bm, 6), a.status
     (0.1, 0.833333, 'ok')
     """
+    angles = settings.heel_angles()
+    check_work(
+        int(stations.x.size), 2 * max(len(h) for h in stations.half_sections) - 1, int(angles.size)
+    )
     table = table or build_section_table(stations)
     panels = shell_panels(stations) if loads.materials else None
     weights = weight_build_up(loads, stations, rho, panels)
-    return analyse_table(table, weights, rho, settings.heel_angles(), settings.free_trim)
+    return analyse_table(table, weights, rho, angles, settings.free_trim)
 
 
 def analyse(design: Design) -> Analysis:

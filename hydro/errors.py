@@ -4,7 +4,7 @@ Every message names the problem in plain words so the command line and the app c
 show it as it is.
 """
 
-__all__ = ["HullwrightError", "ShapeError", "LoadError", "DesignFileError"]
+__all__ = ["HullwrightError", "ShapeError", "LoadError", "DesignFileError", "OutputError"]
 
 
 class HullwrightError(ValueError):
@@ -21,3 +21,7 @@ class LoadError(HullwrightError):
 
 class DesignFileError(HullwrightError):
     """A design or offsets file is broken, foreign or from an unknown version."""
+
+
+class OutputError(HullwrightError):
+    """An output file cannot or must not be written (folder, read-only, an input...)."""

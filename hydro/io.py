@@ -8,20 +8,24 @@ key that carries a unit says so in its name.  Readers check everything and raise
 from __future__ import annotations
 
 import csv
+import difflib
 import io
 import json
 import math
 import os
-import tempfile
+import re
+import stat
 from pathlib import Path
-from typing import Any
+from typing import Any, Iterable
 
 import numpy as np
 
+from hydro import limits, schema
 from hydro.design import AnalysisSettings, CheckSettings, Design
 from hydro.errors import DesignFileError, HullwrightError
 from hydro.hull import Curve, HullSketch, SectionShape, Stations
 from hydro.loads import CrewMember, Loads, MassItem, Material, validate_loads
+from hydro.outputs import write_bytes
 from hydro.stability import Analysis
 
 __all__ = [
@@ -37,13 +41,16 @@ __all__ = [
     "offsets_to_csv",
     "report_dict",
     "atomic_write_text",
+    "read_text",
+    "parse_json",
+    "json_depth",
+    "stations_in_order",
 ]
 
 FORMAT = "hullwright.design"
 VERSION = 2
 #: Older versions this program still reads (1: no "checks" section).
 READABLE_VERSIONS = (1, 2)
-MAX_FILE_BYTES = 20 * 1024 * 1024
 
 
 # ----------------------------------------------------------------------------- writing
@@ -144,233 +151,228 @@ def dumps_design(d: Design) -> str:
     return json.dumps(design_to_dict(d), indent=2) + "\n"
 
 
-def atomic_write_text(path: str | os.PathLike[str], text: str) -> None:
-    """Write ``text`` to a temporary file beside ``path``, then rename it into place."""
-    target = Path(path)
-    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent or ".")
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
-            f.write(text)
-            f.flush()
-            os.fsync(f.fileno())
-        os.replace(tmp, target)
-    except BaseException:
-        Path(tmp).unlink(missing_ok=True)
-        raise
+def atomic_write_text(
+    path: str | os.PathLike[str], text: str, inputs: Iterable[str | os.PathLike[str]] = ()
+) -> Path:
+    """Write ``text`` (UTF-8) safely: checked path, temporary file, then moved into place
+    (:func:`hydro.outputs.write_via_temp`).  Returns the real path written."""
+    return write_bytes(path, text.encode("utf-8"), inputs)
 
 
-def save_design(d: Design, path: str | os.PathLike[str]) -> None:
-    """Save atomically (a crash never leaves half a file)."""
-    atomic_write_text(path, dumps_design(d))
+def save_design(d: Design, path: str | os.PathLike[str]) -> Path:
+    """Save atomically (a crash never leaves half a file); returns the real path."""
+    return atomic_write_text(path, dumps_design(d))
 
 
 # ----------------------------------------------------------------------------- reading
 
 
-class _Reader:
-    """Typed access to nested JSON with error messages that name the bad key."""
-
-    def __init__(self, data: Any, where: str):
-        self.data = data
-        self.where = where
-
-    def _fail(self, msg: str) -> DesignFileError:
-        return DesignFileError(f"{self.where}: {msg}")
-
-    def obj(self, key: str, required: bool = True) -> _Reader | None:
-        v = self.data.get(key) if isinstance(self.data, dict) else None
-        if v is None:
-            if required:
-                raise self._fail(f"missing '{key}'")
-            return None
-        if not isinstance(v, dict):
-            raise DesignFileError(f"{self.where}.{key}: expected an object")
-        return _Reader(v, f"{self.where}.{key}")
-
-    def items(self, key: str, required: bool = True) -> list[_Reader]:
-        v = self.data.get(key)
-        if v is None and not required:
-            return []
-        if not isinstance(v, list):
-            raise self._fail(f"'{key}' must be a list")
-        return [_Reader(x, f"{self.where}.{key}[{i}]") for i, x in enumerate(v)]
-
-    def num(self, key: str, default: float | None = None) -> float:
-        v = self.data.get(key, default)
-        if v is None:
-            raise self._fail(f"missing '{key}'")
-        if isinstance(v, bool) or not isinstance(v, (int, float)) or not math.isfinite(v):
-            raise self._fail(f"'{key}' must be a finite number")
-        return float(v)
-
-    def text(self, key: str, default: str | None = None) -> str:
-        v = self.data.get(key, default)
-        if not isinstance(v, str):
-            raise self._fail(f"'{key}' must be text")
-        return v
-
-    def flag(self, key: str, default: bool) -> bool:
-        v = self.data.get(key, default)
-        if not isinstance(v, bool):
-            raise self._fail(f"'{key}' must be true or false")
-        return v
-
-    def pairs(self, key: str) -> tuple[tuple[float, float], ...]:
-        v = self.data.get(key)
-        if not isinstance(v, list) or not v:
-            raise self._fail(f"'{key}' must be a list of [a, b] pairs")
-        out = []
-        for i, p in enumerate(v):
-            if (
-                not isinstance(p, list)
-                or len(p) != 2
-                or not all(isinstance(t, (int, float)) and not isinstance(t, bool) for t in p)
-                or not all(math.isfinite(t) for t in p)
-            ):
-                raise self._fail(f"'{key}[{i}]' must be a pair of finite numbers")
-            out.append((float(p[0]), float(p[1])))
-        return tuple(out)
+class _JsonProblem(Exception):
+    """Raised from inside the JSON parser's hooks (message shown as is)."""
 
 
-def _read_curve(r: _Reader) -> Curve:
-    return Curve(r.pairs("points_m"), r.flag("smooth", True))
+# a JSON string (escapes included), so brackets inside names do not count as nesting
+_JSON_STRING = re.compile(r'"[^"\\]*(?:\\.[^"\\]*)*"')
+_OPEN = np.zeros(256, dtype=np.int8)
+_OPEN[[ord("["), ord("{")]] = 1
+_OPEN[[ord("]"), ord("}")]] = -1
 
 
-def _read_hull(r: _Reader) -> HullSketch | Stations:
-    sketch = r.obj("sketch", required=False)
-    if sketch is not None:
-        sections = tuple(
-            SectionShape(s.num("x_m"), s.pairs("points_uv"), s.flag("smooth", False))
-            for s in sketch.items("sections")
+def read_text(path: str | os.PathLike[str], cap: int = limits.MAX_FILE_BYTES) -> str:
+    """A file's text, read with a byte cap; :class:`DesignFileError` saying why not.
+
+    Only regular files are read (a device, a named pipe or a socket is refused before
+    it is opened, so nothing blocks), at most ``cap`` + 1 bytes are read whatever size
+    the file claims, and the text must be UTF-8 (a byte-order mark is dropped).
+    """
+    p = os.fspath(path)
+    if not p:
+        raise DesignFileError("no file name given")
+    if "\0" in p:
+        raise DesignFileError("the file name is not valid")
+    name = Path(p).name or p
+    try:
+        st = os.stat(p)
+        if stat.S_ISDIR(st.st_mode):
+            raise DesignFileError(f"{p}: is a folder, not a file")
+        if not stat.S_ISREG(st.st_mode):
+            raise DesignFileError(f"{p}: not a regular file (a device, pipe or socket)")
+        if st.st_size > cap:
+            raise DesignFileError(f"{name}: too large ({st.st_size} bytes, at most {cap})")
+        fd = os.open(p, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_CLOEXEC", 0))
+        with os.fdopen(fd, "rb") as f:
+            if not stat.S_ISREG(os.fstat(f.fileno()).st_mode):
+                raise DesignFileError(f"{p}: not a regular file (a device, pipe or socket)")
+            data = f.read(cap + 1)
+    except (FileNotFoundError, NotADirectoryError):
+        raise DesignFileError(f"{p}: no such file") from None
+    except PermissionError:
+        raise DesignFileError(f"{p}: cannot read (permission denied)") from None
+    except OSError as e:
+        raise DesignFileError(f"{p}: cannot read ({e.strerror or e})") from None
+    if len(data) > cap:
+        raise DesignFileError(f"{name}: too large (more than {cap} bytes)")
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as e:
+        raise DesignFileError(f"{name}: not a UTF-8 text file (bad byte at {e.start})") from None
+
+
+def json_depth(text: str) -> int:
+    """Deepest nesting of arrays and objects in JSON text (strings skipped), found
+    without recursion, so a hostile file cannot exhaust the parser's stack.
+
+    >>> json_depth('{"a": [[1], {"b": "[[["}]}')
+    3
+    """
+    bare = _JSON_STRING.sub("", text).encode("utf-8", "surrogatepass")
+    if not bare:
+        return 0
+    steps = _OPEN[np.frombuffer(bare, dtype=np.uint8)]
+    return int(np.max(np.cumsum(steps, dtype=np.int64), initial=0))
+
+
+def _json_int(text: str) -> int:
+    if len(text) > limits.MAX_NUMBER_CHARS:
+        raise _JsonProblem(f"a number with {len(text)} digits is too long")
+    return int(text)
+
+
+def _json_float(text: str) -> float:
+    if len(text) > limits.MAX_NUMBER_CHARS:
+        raise _JsonProblem(f"a number with {len(text)} characters is too long")
+    value = float(text)
+    if not math.isfinite(value):
+        raise _JsonProblem(f"the number {text} is too large")
+    return value
+
+
+def _json_constant(text: str) -> float:
+    raise _JsonProblem(f"{text} is not a number")
+
+
+def _json_object(pairs: list[tuple[str, Any]]) -> dict[str, Any]:
+    out = dict(pairs)
+    if len(out) != len(pairs):
+        seen: set[str] = set()
+        twice = next(k for k, _ in pairs if k in seen or seen.add(k))  # type: ignore[func-returns-value]
+        raise _JsonProblem(f"the key '{twice.encode('utf-8', 'backslashreplace').decode()}' appears twice")
+    return out
+
+
+def parse_json(text: str, name: str) -> Any:
+    """Parse JSON text strictly: bounded nesting and number size, no NaN or Infinity,
+    no repeated keys.  Raises :class:`DesignFileError` naming the file."""
+    depth = json_depth(text)
+    if depth > limits.MAX_JSON_DEPTH:
+        raise DesignFileError(
+            f"{name}: nested {depth} levels deep (at most {limits.MAX_JSON_DEPTH}, MAX_JSON_DEPTH)"
         )
-        count = sketch.num("station_count", 41)
-        if count != int(count):
-            raise DesignFileError(f"{sketch.where}: 'station_count' must be a whole number")
+    try:
+        return json.loads(
+            text,
+            parse_int=_json_int,
+            parse_float=_json_float,
+            parse_constant=_json_constant,
+            object_pairs_hook=_json_object,
+        )
+    except json.JSONDecodeError as e:
+        raise DesignFileError(f"{name}: not valid JSON (line {e.lineno}: {e.msg})") from None
+    except _JsonProblem as e:
+        raise DesignFileError(f"{name}: {e}") from None
+    except RecursionError:
+        raise DesignFileError(f"{name}: nested too deeply") from None
+
+
+def _curve_of(c: schema.CurveModel) -> Curve:
+    return Curve(tuple((p[0], p[1]) for p in c.points_m), c.smooth)
+
+
+def _hull_of(h: schema.HullModel) -> HullSketch | Stations:
+    if h.sketch is not None:
+        s = h.sketch
         return HullSketch(
-            plan=_read_curve(sketch.obj("plan_half_breadth")),  # type: ignore[arg-type]
-            keel=_read_curve(sketch.obj("keel")),  # type: ignore[arg-type]
-            sheer=_read_curve(sketch.obj("sheer")),  # type: ignore[arg-type]
-            sections=sections,
-            station_count=int(count),
+            plan=_curve_of(s.plan_half_breadth),
+            keel=_curve_of(s.keel),
+            sheer=_curve_of(s.sheer),
+            sections=tuple(
+                SectionShape(sec.x_m, tuple((p[0], p[1]) for p in sec.points_uv), sec.smooth)
+                for sec in s.sections
+            ),
+            station_count=s.station_count,
         )
-    rows = r.items("offsets", required=False)
-    if not rows:
-        raise DesignFileError(f"{r.where}: needs 'sketch' or 'offsets'")
-    return Stations(
-        np.array([row.num("x_m") for row in rows]),
-        tuple(np.array(row.pairs("points_m")) for row in rows),
+    rows = h.offsets or []
+    return stations_in_order(
+        [row.x_m for row in rows], [row.points_m for row in rows], "design.hull.offsets"
     )
 
 
-def _read_loads(r: _Reader | None) -> Loads:
-    if r is None:
+def _loads_of(ld: schema.LoadsModel | None) -> Loads:
+    if ld is None:
         return Loads()
-    crew = tuple(
-        CrewMember(
-            name=c.text("name", "crew"),
-            x=c.num("x_m"),
-            mass=c.num("mass_kg", 75.0),
-            y=c.num("side_m", 0.0),
-            seat_height=c.num("seat_height_m", 0.05),
-            cg_above_seat=c.num("cg_above_seat_m", 0.30),
-        )
-        for c in r.items("crew", required=False)
-    )
-    items = tuple(
-        MassItem(i.text("name", "item"), i.num("mass_kg"), i.num("x_m"), i.num("y_m", 0.0), i.num("z_m"))
-        for i in r.items("items", required=False)
-    )
-    materials = []
-    for m in r.items("materials", required=False):
-        surfaces = m.data.get("surfaces", ["bottom", "sides", "ends"])
-        if not isinstance(surfaces, list) or not all(isinstance(s, str) for s in surfaces):
-            raise DesignFileError(f"{m.where}: 'surfaces' must be a list of names")
-        materials.append(
-            Material(
-                m.text("name", "material"),
-                m.num("areal_density_kg_m2"),
-                m.num("layers", 1.0),
-                tuple(surfaces),
-                m.num("thickness_m", 0.0),
-            )
-        )
     return Loads(
-        crew=crew,
-        items=items,
-        materials=tuple(materials),
-        bottom_thickness=r.num("bottom_thickness_m", 0.0),
-        bilge_water_depth=r.num("bilge_water_depth_m", 0.0),
-        wet_factor=r.num("wet_factor", 1.0),
+        crew=tuple(
+            CrewMember(c.name, c.x_m, c.mass_kg, c.side_m, c.seat_height_m, c.cg_above_seat_m)
+            for c in ld.crew
+        ),
+        items=tuple(MassItem(i.name, i.mass_kg, i.x_m, i.y_m, i.z_m) for i in ld.items),
+        materials=tuple(
+            Material(m.name, m.areal_density_kg_m2, m.layers, tuple(m.surfaces), m.thickness_m)
+            for m in ld.materials
+        ),
+        bottom_thickness=ld.bottom_thickness_m,
+        bilge_water_depth=ld.bilge_water_depth_m,
+        wet_factor=ld.wet_factor,
     )
 
 
-def _read_checks(r: _Reader | None) -> CheckSettings:
-    if r is None:
+def _checks_of(c: schema.ChecksModel | None) -> CheckSettings:
+    if c is None:
         return CheckSettings()
-    d = CheckSettings()
-
-    def optional_list(key: str, kind: type) -> tuple | None:
-        v = r.data.get(key)
-        if v is None:
-            return None
-        if not isinstance(v, list) or not all(
-            isinstance(e, kind) and not isinstance(e, bool) and math.isfinite(e) for e in v
-        ):
-            raise DesignFileError(f"{r.where}.{key}: expected a list of numbers or null")
-        return tuple(v)
-
-    distance = r.data.get("shift_distance_m")
     return CheckSettings(
-        shift_crew=optional_list("shift_crew", int),
-        shift_distance_m=None if distance is None else r.num("shift_distance_m"),
-        shift_to_gunwale=r.flag("shift_to_gunwale", d.shift_to_gunwale),
-        boarding_mass_kg=r.num("boarding_mass_kg", d.boarding_mass_kg),
-        target_gm_m=r.num("target_gm_m", d.target_gm_m),
-        whatif_crew_kg=optional_list("whatif_crew_kg", (int, float)),  # type: ignore[arg-type]
-        whatif_wet_factor=r.num("whatif_wet_factor", d.whatif_wet_factor),
-        whatif_bilge_m=r.num("whatif_bilge_m", d.whatif_bilge_m),
+        shift_crew=None if c.shift_crew is None else tuple(c.shift_crew),
+        shift_distance_m=c.shift_distance_m,
+        shift_to_gunwale=c.shift_to_gunwale,
+        boarding_mass_kg=c.boarding_mass_kg,
+        target_gm_m=c.target_gm_m,
+        whatif_crew_kg=None if c.whatif_crew_kg is None else tuple(c.whatif_crew_kg),
+        whatif_wet_factor=c.whatif_wet_factor,
+        whatif_bilge_m=c.whatif_bilge_m,
     )
 
 
 def design_from_dict(data: Any) -> Design:
-    """Build a design from parsed JSON; raises DesignFileError naming the problem."""
+    """Build a design from parsed JSON; raises DesignFileError naming the problem.
+
+    Every key is checked against :mod:`hydro.schema` (types, ranges, unknown keys),
+    then the design against :mod:`hydro.limits` (sizes, budgets) and the engine's own
+    shape and load checks.
+    """
     if not isinstance(data, dict) or data.get("format") != FORMAT:
         raise DesignFileError("not a Hullwright design file (no 'format': 'hullwright.design')")
     version = data.get("version")
     if type(version) is not int or version not in READABLE_VERSIONS:
+        shown = json.dumps(version, ensure_ascii=True, default=str)[:20]
         raise DesignFileError(
-            f"design file version {version!r} is not supported (this program reads "
+            f"design file version {shown} is not supported (this program reads "
             f"{', '.join(map(str, READABLE_VERSIONS))})"
         )
-    r = _Reader(data, "design")
-    water_r = r.obj("water", required=False)
-    water: str | float = "fresh"
-    if water_r is not None:
-        if "preset" in water_r.data:
-            water = water_r.text("preset")
-        else:
-            water = water_r.num("density_kg_m3")
-    settings_r = r.obj("analysis", required=False)
-    settings = AnalysisSettings()
-    if settings_r is not None:
-        settings = AnalysisSettings(
-            settings_r.num("heel_step_deg", 1.0),
-            settings_r.num("heel_max_deg", 90.0),
-            settings_r.flag("free_trim", True),
-            settings_r.flag("open_boat", True),
-        )
+    model = schema.validate_design_data(data)
+    w = model.water
+    a = model.analysis
     try:
         design = Design(
-            name=r.text("name", "Untitled"),
-            hull=_read_hull(r.obj("hull")),  # type: ignore[arg-type]
-            loads=_read_loads(r.obj("loads", required=False)),
-            water=water,
-            notes=r.text("notes", ""),
-            settings=settings,
-            checks=_read_checks(r.obj("checks", required=False)),
+            name=model.name,
+            hull=_hull_of(model.hull),
+            loads=_loads_of(model.loads),
+            water="fresh" if w is None else (w.preset or w.density_kg_m3 or "fresh"),
+            notes=model.notes,
+            settings=AnalysisSettings()
+            if a is None
+            else AnalysisSettings(a.heel_step_deg, a.heel_max_deg, a.free_trim, a.open_boat),
+            checks=_checks_of(model.checks),
         )
-        design.water_density  # noqa: B018 - validates the water entry
-        settings.heel_angles()
+        limits.check_design(design)
         validate_loads(design.loads, design.stations())
     except DesignFileError:
         raise
@@ -379,34 +381,52 @@ def design_from_dict(data: Any) -> Design:
     return design
 
 
-def _read_text(p: Path) -> str:
-    """A file's text, or DesignFileError saying plainly why not."""
-    try:
-        if p.stat().st_size > MAX_FILE_BYTES:
-            raise DesignFileError(f"{p.name}: too large for this kind of file")
-        return p.read_text(encoding="utf-8")
-    except FileNotFoundError:
-        raise DesignFileError(f"{p}: no such file") from None
-    except IsADirectoryError:
-        raise DesignFileError(f"{p}: is a folder, not a file") from None
-    except UnicodeDecodeError:
-        raise DesignFileError(f"{p.name}: not a text file") from None
-    except OSError as e:
-        raise DesignFileError(f"{p}: cannot read ({e.strerror})") from None
-
-
 def load_design(path: str | os.PathLike[str]) -> Design:
-    """Read and check a design file."""
-    p = Path(path)
-    text = _read_text(p)
-    try:
-        data = json.loads(text)
-    except json.JSONDecodeError as e:
-        raise DesignFileError(f"{p.name}: not valid JSON (line {e.lineno}: {e.msg})") from None
+    """Read and check a design file (see :func:`read_text` and :func:`design_from_dict`)."""
+    name = Path(path).name
+    data = parse_json(read_text(path), name)
     try:
         return design_from_dict(data)
     except DesignFileError as e:
-        raise DesignFileError(f"{p.name}: {e}") from None
+        raise DesignFileError(f"{name}: {e}") from None
+
+
+def stations_in_order(
+    xs: list[float], halves: list[Any], where: str
+) -> Stations:
+    """Stations from offsets as read: stations listed from the bow aft are turned round,
+    and a half section listed from the top down to the keel is read upwards; any other
+    order is refused.  Checked against :mod:`hydro.limits` (counts, sizes)."""
+    limits.check_count("stations", len(xs), limits.MAX_STATIONS, "MAX_STATIONS")
+    x = np.asarray(xs, dtype=float)
+    hs = [np.asarray(h, dtype=float).reshape(-1, 2) for h in halves]
+    if x.size >= 2 and np.all(np.diff(x) < 0):
+        x, hs = x[::-1], hs[::-1]
+    if x.size >= 2 and not np.all(np.diff(x) > 0):
+        i = int(np.argmax(np.diff(x) <= 0))
+        raise DesignFileError(
+            f"{where}: stations must run one way along the hull "
+            f"(x = {x[i]:.4g} m is followed by x = {x[i + 1]:.4g} m)"
+        )
+    for i, h in enumerate(hs):
+        if len(h) >= 3 and _signed_area(h) < 0:
+            if abs(h[-1, 0]) <= 1e-9 and abs(h[0, 0]) <= 1e-9:
+                hs[i] = h[::-1]
+            else:
+                raise DesignFileError(
+                    f"{where}: the half section at x = {x[i]:.4g} m runs the wrong way round; "
+                    "list its points from the keel up to the gunwale"
+                )
+    stations = Stations(x, tuple(hs))
+    limits.check_stations(stations)
+    return stations
+
+
+def _signed_area(h: np.ndarray) -> float:
+    """Area of the mirrored, closed section (positive for points listed keel upwards)."""
+    ring = np.vstack([h, h[::-1] * [-1.0, 1.0]])
+    y, z = ring[:, 0], ring[:, 1]
+    return 0.5 * float(np.sum(y[:-1] * z[1:] - y[1:] * z[:-1]))
 
 
 # ----------------------------------------------------------------------------- offsets
@@ -424,42 +444,82 @@ def offsets_to_csv(stations: Stations) -> str:
     return out.getvalue()
 
 
-def write_offsets(stations: Stations, path: str | os.PathLike[str]) -> None:
-    atomic_write_text(path, offsets_to_csv(stations))
+def write_offsets(
+    stations: Stations, path: str | os.PathLike[str], inputs: Iterable[str | os.PathLike[str]] = ()
+) -> Path:
+    """Write the table of offsets as CSV, refusing to overwrite any of ``inputs``."""
+    return atomic_write_text(path, offsets_to_csv(stations), inputs)
+
+
+def _csv_number(text: str, where: str, what: str) -> float:
+    """One CSV cell as a finite number of sensible length (DesignFileError if not)."""
+    text = text.strip()
+    if len(text) > limits.MAX_NUMBER_CHARS:
+        raise DesignFileError(f"{where}: '{what}' is too long to be a number")
+    try:
+        v = float(text)
+    except ValueError:
+        raise DesignFileError(f"{where}: '{what}' is not a number") from None
+    if not math.isfinite(v):
+        raise DesignFileError(f"{where}: '{what}' is not a finite number")
+    return v
+
+
+def _is_number(text: str) -> bool:
+    try:
+        float(text)
+    except ValueError:
+        return False
+    return True
+
+
+def _csv_rows(text: str, name: str) -> list[tuple[int, list[str]]]:
+    """(line number, cells) of the rows that are not blank or '#' comments."""
+    try:
+        return [
+            (n, row)
+            for n, row in enumerate(csv.reader(io.StringIO(text)), start=1)
+            if row and "".join(row).strip() and not row[0].lstrip().startswith("#")
+        ]
+    except csv.Error as e:
+        raise DesignFileError(f"{name}: not a readable CSV file ({e})") from None
 
 
 def read_offsets(path: str | os.PathLike[str]) -> Stations:
     """Read a table of offsets (CSV with columns x, y, z in metres).
 
     Rows with the same x, one after another, form one half section from the centreline
-    to the gunwale.  Lines starting with '#' and one header row are skipped.
+    to the gunwale.  Lines starting with '#' and one header row are skipped.  Stations
+    may run either way along the hull (see :func:`stations_in_order`); counts and sizes
+    are checked against :mod:`hydro.limits` while reading.
     """
-    p = Path(path)
-    text = _read_text(p)
+    name = Path(path).name
+    rows = _csv_rows(read_text(path), name)
+    if rows and not _is_number(rows[0][1][0]):
+        rows = rows[1:]  # header
     groups: list[tuple[float, list[tuple[float, float]]]] = []
-    for n, row in enumerate(csv.reader(io.StringIO(text)), start=1):
-        if not row or not "".join(row).strip() or row[0].lstrip().startswith("#"):
-            continue
+    for n, row in rows:
+        where = f"{name} line {n}"
         if len(row) < 3:
-            raise DesignFileError(f"{p.name} line {n}: expected three columns x, y, z")
-        try:
-            x, y, z = (float(v) for v in row[:3])
-        except ValueError:
-            if n == 1 or not groups:
-                continue  # header
-            raise DesignFileError(f"{p.name} line {n}: not a number") from None
-        if not all(math.isfinite(v) for v in (x, y, z)):
-            raise DesignFileError(f"{p.name} line {n}: not a finite number")
+            raise DesignFileError(f"{where}: expected three columns x, y, z")
+        x, y, z = (_csv_number(v, where, c) for v, c in zip(row[:3], "xyz"))
         if groups and abs(groups[-1][0] - x) <= 1e-9:
             groups[-1][1].append((y, z))
+            limits.check_count(
+                f"points at station x = {x:.4g} m", len(groups[-1][1]),
+                limits.MAX_POINTS_PER_SECTION, "MAX_POINTS_PER_SECTION",
+            )
         else:
             groups.append((x, [(y, z)]))
+            limits.check_count("stations", len(groups), limits.MAX_STATIONS, "MAX_STATIONS")
     if len(groups) < 2:
-        raise DesignFileError(f"{p.name}: needs at least two stations of offsets")
+        raise DesignFileError(f"{name}: needs at least two stations of offsets")
     try:
-        return Stations(np.array([g[0] for g in groups]), tuple(np.array(g[1]) for g in groups))
+        return stations_in_order([g[0] for g in groups], [g[1] for g in groups], name)
+    except DesignFileError:
+        raise
     except HullwrightError as e:
-        raise DesignFileError(f"{p.name}: {e}") from None
+        raise DesignFileError(f"{name}: {e}") from None
 
 
 # ----------------------------------------------------------------------------- report
@@ -562,31 +622,44 @@ def read_incline_readings(path: str | os.PathLike[str]) -> list[Any]:
     """
     from hydro.incline import InclineReading
 
-    p = Path(path)
-    text = _read_text(p)
-    rows = [r for r in csv.reader(io.StringIO(text)) if r and not r[0].lstrip().startswith("#")]
+    name = Path(path).name
+    rows = [r for _, r in _csv_rows(read_text(path, limits.MAX_READINGS_BYTES), name)]
     if not rows:
-        raise DesignFileError(f"{p.name}: no readings")
+        raise DesignFileError(f"{name}: no readings")
+    limits.check_count("readings", len(rows) - 1, limits.MAX_READINGS, "MAX_READINGS")
     header = [h.strip().lower() for h in rows[0]]
-    need = {"mass_kg", "distance_m"}
-    if not need <= set(header):
-        raise DesignFileError(f"{p.name}: the first row must name the columns mass_kg, distance_m and heel_deg (or pendulum_length_m, deflection_m)")
-    col = {name: header.index(name) for name in header}
+    known = ("mass_kg", "distance_m", "heel_deg", "pendulum_length_m", "deflection_m")
+    for h in header:
+        if h not in known:
+            near = difflib.get_close_matches(h, known, n=1, cutoff=0.6)
+            hint = f" (did you mean '{near[0]}'?)" if near else ""
+            raise DesignFileError(f"{name}: unknown column '{h[:40]}'{hint}")
+    if len(set(header)) != len(header):
+        raise DesignFileError(f"{name}: a column is named twice")
+    if not {"mass_kg", "distance_m"} <= set(header):
+        raise DesignFileError(
+            f"{name}: the first row must name the columns mass_kg, distance_m and heel_deg "
+            "(or pendulum_length_m, deflection_m)"
+        )
+    col = {h: i for i, h in enumerate(header)}
     out = []
     for n, row in enumerate(rows[1:], start=2):
-        def get(name: str) -> float | None:
-            if name not in col or col[name] >= len(row) or not row[col[name]].strip():
+        where = f"{name} row {n}"
+
+        def get(key: str) -> float | None:
+            if key not in col or col[key] >= len(row) or not row[col[key]].strip():
                 return None
-            try:
-                v = float(row[col[name]])
-            except ValueError:
-                raise DesignFileError(f"{p.name} row {n}: '{name}' is not a number") from None
-            if not math.isfinite(v):
-                raise DesignFileError(f"{p.name} row {n}: '{name}' is not a finite number")
-            return v
+            return _csv_number(row[col[key]], where, key)
 
         mass, dist = get("mass_kg"), get("distance_m")
         if mass is None or dist is None:
-            raise DesignFileError(f"{p.name} row {n}: needs mass_kg and distance_m")
-        out.append(InclineReading(mass, dist, get("heel_deg"), get("pendulum_length_m"), get("deflection_m")))
+            raise DesignFileError(f"{where}: needs mass_kg and distance_m")
+        if not 0.0 < mass <= limits.MAX_ITEM_KG:
+            raise DesignFileError(f"{where}: mass_kg must be above 0 and at most {limits.MAX_ITEM_KG:g}")
+        if abs(dist) > limits.MAX_BEAM_M:
+            raise DesignFileError(f"{where}: distance_m is beyond the boat (at most {limits.MAX_BEAM_M:g} m)")
+        heel = get("heel_deg")
+        if heel is not None and abs(heel) >= 90.0:
+            raise DesignFileError(f"{where}: heel_deg must be less than 90 degrees")
+        out.append(InclineReading(mass, dist, heel, get("pendulum_length_m"), get("deflection_m")))
     return out

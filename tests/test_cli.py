@@ -123,7 +123,7 @@ def test_incline_command(tmp_path, capsys):
     assert "'heel_deg' is not a number" in capsys.readouterr().err
     readings.write_text("weight,where\n1,2\n")
     assert main(["incline", PUNT, str(readings), "--mass", "60"]) == 2
-    assert "must name the columns" in capsys.readouterr().err
+    assert "unknown column 'weight'" in capsys.readouterr().err
 
 
 def test_resize_round_trips(tmp_path):

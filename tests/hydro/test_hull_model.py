@@ -92,9 +92,9 @@ def test_raft_section_may_start_above_the_baseline():
     "text,message",
     [
         ("x_m,y_m,z_m\n0,0,0\n0,0.5,0.3\n", "at least two stations"),
-        ("x_m,y_m,z_m\n0,0,0\n0,0.5,abc\n", "line 3: not a number"),
+        ("x_m,y_m,z_m\n0,0,0\n0,0.5,abc\n", "line 3: 'z' is not a number"),
         ("x_m,y_m\n0,0\n", "three columns"),
-        ("0,0,0\n0,0.5,0.3\n1,0,0\n1,0.5,0.3\n0.5,0,0\n0.5,0.4,0.3\n", "strictly increasing"),
+        ("0,0,0\n0,0.5,0.3\n1,0,0\n1,0.5,0.3\n0.5,0,0\n0.5,0.4,0.3\n", "stations must run one way along the hull"),
         ("0,0.1,0\n0,0.5,0.3\n1,0.1,0\n1,0.5,0.3\n", "start on the centreline"),
         ("0,0,0\n0,0.5,inf\n1,0,0\n1,0.5,0.3\n", "finite"),
     ],
