@@ -34,6 +34,7 @@ from hydro import DesignFileError, HullwrightError, load_design, save_design
 from app import style
 from app.document import HullDocument, starter_design
 from app.checks_panel import ChecksPanel
+from app.dimensions_panel import DimensionsPanel
 from app.load_editor import LoadEditor
 from app.plan_view import PlanView
 from app.plate_dialog import PlateDialog
@@ -146,6 +147,8 @@ class MainWindow(QMainWindow):
         self._build_toolbar()
         self.checks = ChecksPanel(document, self.options, self.results.gz_plot)
         self.checks_dock = self.add_panel(self.checks, "Checks")
+        self.dimensions = DimensionsPanel(document, self.options)
+        self.dimensions_dock = self.add_panel(self.dimensions, "Dimensions")
         self.loads_dock.raise_()
 
         document.notice.connect(self._on_notice)

@@ -29,6 +29,7 @@ import numpy as np
 
 from hydro.design import Design
 from hydro.errors import ShapeError
+from hydro.loads import Loads
 from hydro.hull import Curve, HullSketch, Stations, validate_sketch
 
 __all__ = [
@@ -42,6 +43,7 @@ __all__ = [
     "with_flare",
     "with_twin_hulls",
     "resize_design",
+    "move_loads",
 ]
 
 #: Chine points stay at least this far off the centreline, as a fraction of the breadth.
@@ -330,12 +332,13 @@ def resize_design(
         x0 = float(hull.x[0])
         hull = _scale_stations(hull, fx, fy, fz)
 
-    def moved(item):  # crew, items: same place in the boat
-        return replace(item, x=x0 + (item.x - x0) * fx, y=item.y * fy)
+    return replace(design, hull=hull, loads=move_loads(design.loads, x0, fx, fy))
 
-    loads = replace(
-        design.loads,
-        crew=tuple(moved(c) for c in design.loads.crew),
-        items=tuple(moved(i) for i in design.loads.items),
+
+def move_loads(loads: Loads, x0: float, fx: float, fy: float) -> Loads:
+    """Crew and items at the same place in a hull stretched by ``fx`` about x0, ``fy`` across."""
+    return replace(
+        loads,
+        crew=tuple(replace(c, x=x0 + (c.x - x0) * fx, y=c.y * fy) for c in loads.crew),
+        items=tuple(replace(i, x=x0 + (i.x - x0) * fx, y=i.y * fy) for i in loads.items),
     )
-    return replace(design, hull=hull, loads=loads)

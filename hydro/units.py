@@ -313,7 +313,7 @@ def parse_length(
         raise LengthError(f"{what}: nothing typed")
     if re.search(r"\d,\d", s):
         raise LengthError(f"{what}: '{raw}' has a comma; use a point for decimals (3.6 m)")
-    metres = _read(s.lower(), default_unit, what, raw)
+    metres = round(_read(s.lower(), default_unit, what, raw), 12)  # no 1.0287000000000002
     if not math.isfinite(metres):
         raise LengthError(f"{what}: '{raw}' is not a finite length")
     units = shown_in or (IMPERIAL if default_unit in ("in", "ft") else METRIC)
