@@ -14,7 +14,7 @@ import json
 import math
 import sys
 from pathlib import Path
-from typing import Sequence
+from typing import TYPE_CHECKING, Sequence
 
 import numpy as np
 
@@ -39,6 +39,9 @@ from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
 from hydro.units import LengthError, parse_length, system
 from hydro.stability import Analysis
+
+if TYPE_CHECKING:
+    from hydro.build_pack import PackSettings
 
 EXIT_BAD_INPUT = 2
 
@@ -122,6 +125,27 @@ def _parser() -> argparse.ArgumentParser:
     rs.add_argument("--beam", metavar="LENGTH", help="beam at the gunwale")
     rs.add_argument("--depth", metavar="LENGTH", help="depth at mid-length")
     rs.add_argument("-o", "--output", required=True, help="NEW.json to write")
+    pk = sub.add_parser("pack", help="the build pack: flat panels, frames, sheet layout, materials")
+    pk.add_argument("design")
+    pk.add_argument("--sheet", default="1220x2440",
+                    help="stock sheet WxH: mm (1220x2440), m (1.22x2.44m), ft (4x8ft) or in")
+    pk.add_argument("--grain", choices=["locked", "free"], default="locked",
+                    help="locked: pieces turn 0 or 180 degrees only (default)")
+    pk.add_argument("--kerf", type=float, default=3.0, help="saw kerf between pieces, mm (default 3)")
+    pk.add_argument("--margin", type=float, default=5.0, help="clear sheet edge, mm (default 5)")
+    pk.add_argument("--joint", choices=["auto", "scarf", "butt"], default="auto",
+                    help="joints in long pieces (auto: scarf, or staggered butts in laminates)")
+    pk.add_argument("--scarf-ratio", type=float, default=8.0, help="scarf length / thickness (default 8)")
+    pk.add_argument("--strain-limit", type=float, default=0.05,
+                    help="flag panels whose twist strain is above this, percent (default 0.05)")
+    pk.add_argument("--frames", help="frame positions in metres from the aft end, e.g. 0.6,1.3,2.0")
+    pk.add_argument("--offset-spacing", type=float,
+                    help="also tabulate panel offsets every this many mm (e.g. 100)")
+    pk.add_argument("--tape-roll", type=float, default=55.0, help="tape roll length, m (default 55)")
+    pk.add_argument("--paint-coverage", type=float, default=10.0,
+                    help="paint coverage per coat, m2 per litre (default 10)")
+    pk.add_argument("--coats", type=float, default=2.0, help="coats of paint (default 2)")
+    pk.add_argument("--json", action="store_true", help="print panels, sheets and materials as JSON")
     op = sub.add_parser("open", help="open the desktop app")
     op.add_argument("design", nargs="?")
     return p
@@ -390,6 +414,72 @@ def _resize(args: argparse.Namespace) -> None:
     save_design(resize_design(design, length, beam, depth), out)
 
 
+_SHEET_UNITS = {"mm": 0.001, "cm": 0.01, "m": 1.0, "in": 0.0254, "ft": 0.3048}
+
+
+def parse_sheet(text: str) -> tuple[float, float]:
+    """Sheet size 'WxH' (mm unless a unit follows: m, cm, in, ft) -> (width, length) m.
+
+    >>> parse_sheet("1220x2440"), parse_sheet("4x8ft")
+    ((1.22, 2.44), (1.2192, 2.4384))
+    """
+    t = text.strip().lower().replace(" ", "").replace("×", "x")
+    unit = next((u for u in ("mm", "cm", "in", "ft", "m") if t.endswith(u)), "mm")
+    body = t[: len(t) - len(unit)] if t.endswith(unit) else t
+    try:
+        w, h = (float(v) for v in body.split("x"))
+    except ValueError:
+        raise BadInput(f"--sheet '{text}': give WxH, e.g. 1220x2440 (mm) or 4x8ft") from None
+    if not (math.isfinite(w) and math.isfinite(h) and w > 0 and h > 0):
+        raise BadInput(f"--sheet '{text}': the sheet sides must be positive numbers")
+    k = _SHEET_UNITS[unit]
+    w, h = round(w * k, 6), round(h * k, 6)
+    return (min(w, h), max(w, h))
+
+
+def _pack_settings(args: argparse.Namespace) -> "PackSettings":
+    from hydro.build_pack import PackSettings
+    from hydro.materials_list import ShoppingSettings
+
+    frames = None
+    if args.frames:
+        try:
+            frames = tuple(float(v) for v in args.frames.split(","))
+        except ValueError:
+            raise BadInput("--frames must be positions in metres, e.g. 0.6,1.3,2.0") from None
+        if not all(math.isfinite(v) for v in frames):
+            raise BadInput("--frames must be finite numbers")
+    spacing = None if args.offset_spacing is None else args.offset_spacing / 1000.0
+    return PackSettings(
+        sheet_m=parse_sheet(args.sheet),
+        margin_m=args.margin / 1000.0,
+        kerf_m=args.kerf / 1000.0,
+        grain_locked=args.grain == "locked",
+        joint=args.joint,
+        scarf_ratio=args.scarf_ratio,
+        strain_limit=args.strain_limit / 100.0,
+        frame_x=frames,
+        offset_spacing_m=spacing,
+        shopping=ShoppingSettings(
+            tape_roll_m=args.tape_roll,
+            paint_coverage_m2_per_l=args.paint_coverage,
+            paint_coats=args.coats,
+        ),
+    )
+
+
+def _pack(args: argparse.Namespace) -> None:
+    from hydro.build_pack import build_pack, pack_dict
+
+    if not args.json:
+        raise BadInput("pack: give --json")
+    settings = _pack_settings(args)
+    design = load_design(args.design)
+    pack = build_pack(design, settings)
+    if args.json:
+        print(json.dumps(pack_dict(pack), indent=2, allow_nan=False))
+
+
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
     keep_freed_memory()
@@ -410,6 +500,8 @@ def main(argv: Sequence[str] | None = None) -> int:
             _plate(args)
         elif args.command == "resize":
             _resize(args)
+        elif args.command == "pack":
+            _pack(args)
         elif args.command == "open":
             from app.main import main as gui_main
 

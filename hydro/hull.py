@@ -30,6 +30,7 @@ __all__ = [
     "validate_sketch",
     "validate_half_section",
     "scale_breadth",
+    "half_sections_at",
 ]
 
 FloatArray = NDArray[np.float64]
@@ -326,13 +327,27 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
         validate_half_section(_blend(shapes, at, np.array([mid]))[0], f"the blend at x = {mid:.3f} m")
     x0, x1 = sketch.x_range
     xs = np.linspace(x0, x1, n)
+    # affine maps with positive scales keep the checked shapes free of crossings
+    return Stations(xs, tuple(_place_shapes(sketch, shapes, at, xs)), check_sections=False)
+
+
+def _place_shapes(sketch: HullSketch, shapes: FloatArray, at: FloatArray, xs: FloatArray) -> FloatArray:
     uv = _blend(shapes, at, xs)
     b = np.maximum(sketch.plan(xs), 0.0)[:, None]
     k = sketch.keel(xs)[:, None]
     d = (sketch.sheer(xs) - sketch.keel(xs))[:, None]
-    halves = np.stack([uv[:, :, 0] * b, k + uv[:, :, 1] * d], axis=2)
-    # affine maps with positive scales keep the checked shapes free of crossings
-    return Stations(xs, tuple(halves), check_sections=False)
+    return np.stack([uv[:, :, 0] * b, k + uv[:, :, 1] * d], axis=2)
+
+
+def half_sections_at(sketch: HullSketch, xs: FloatArray) -> FloatArray:
+    """(n, m, 2) half sections (y, z) of a valid sketch at any positions ``xs`` (m).
+
+    The same construction as :func:`generate_stations`, at chosen places (frames,
+    station ticks); every section has the same m points, so chines are rows.
+    """
+    shapes = _sampled_shapes(sketch)
+    at = np.array([sec.x for sec in sketch.sections])
+    return _place_shapes(sketch, shapes, at, np.asarray(xs, dtype=float))
 
 
 def scale_breadth(sketch: HullSketch, factor: float) -> HullSketch:

@@ -1,0 +1,375 @@
+"""Laying flat pieces out on stock sheets: joints, first-fit decreasing, bottom-left fill.
+
+Sheet coordinates: X along the sheet's length (the grain or flute direction), Y across
+it, metres, origin at a corner.  A piece's u axis (its length) runs along X; with the
+grain locked a piece may only turn by 180 degrees, otherwise also by 90.  Pieces keep
+``kerf`` apart and ``margin`` from the sheet edges.
+
+Pieces longer than a sheet are cut into parts joined by a scarf (each joint uses
+ratio x thickness of extra length, the overlap of the two bevels) or a butt block (a
+strip of the same stock, 12 x thickness wide, stopped 50 mm short of the edges: common
+practice, no source).  Joints keep away from frames and from the joints of the other
+panels and layers (staggered).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+import shapely
+from numpy.typing import NDArray
+from shapely import affinity
+
+from hydro.panels import PanelError
+
+__all__ = [
+    "SHEET_PRESETS",
+    "LayoutPiece",
+    "Placement",
+    "Sheet",
+    "Layout",
+    "JointSpec",
+    "split_piece",
+    "joint_positions",
+    "lay_out",
+    "lower_bound",
+]
+
+FloatArray = NDArray[np.float64]
+
+#: Stock sheet sizes (width, length) in metres: plywood and board suppliers' sizes.
+SHEET_PRESETS: dict[str, tuple[float, float]] = {
+    "1220x2440 mm": (1.22, 2.44),
+    "1250x2500 mm": (1.25, 2.50),
+    "1500x3000 mm": (1.50, 3.00),
+    "4x8 ft": (1.2192, 2.4384),
+    "5x8 ft": (1.524, 2.4384),
+}
+
+#: A butt block is this many thicknesses wide in total and stops this far from the
+#: panel edges (common practice, no source).
+BUTT_BLOCK_THICKNESSES = 12.0
+BUTT_BLOCK_EDGE_GAP_M = 0.05
+#: Joints keep at least this far from a piece's ends where they can.
+END_CLEARANCE_M = 0.4
+
+
+@dataclass(frozen=True, eq=False)
+class LayoutPiece:
+    """One shape to place (one copy).
+
+    Attributes
+    ----------
+    label : what is written on it ("side, port, layer 1, part 1 of 2")
+    name : the flat piece it comes from
+    polygon : its outline in its own coordinates (u along its length)
+    mirrored : draw as the mirror image (a port/starboard twin)
+    material : the stock it is cut from
+    """
+
+    label: str
+    name: str
+    polygon: shapely.Polygon
+    mirrored: bool = False
+    material: str = ""
+
+
+@dataclass(frozen=True, eq=False)
+class Placement:
+    """A piece on a sheet: its label and its outline in sheet coordinates (m)."""
+
+    piece: LayoutPiece
+    polygon: shapely.Polygon
+    turned: int  # degrees: 0, 90, 180 or 270
+
+
+@dataclass(frozen=True, eq=False)
+class Sheet:
+    """One stock sheet with its pieces.  ``length`` along X, ``width`` along Y (m)."""
+
+    width: float
+    length: float
+    material: str
+    placements: tuple[Placement, ...]
+
+    @property
+    def used_area(self) -> float:
+        return float(sum(p.polygon.area for p in self.placements))
+
+
+@dataclass(frozen=True, eq=False)
+class Layout:
+    """All sheets of one material.
+
+    Attributes
+    ----------
+    sheets : the sheets in order
+    lower_bound : ceil(sum of piece areas / sheet area)
+    utilisation : piece area / sheet area over all sheets (0-1)
+    """
+
+    sheets: tuple[Sheet, ...]
+    lower_bound: int
+    utilisation: float
+
+
+@dataclass(frozen=True)
+class JointSpec:
+    """How long pieces are joined.
+
+    Attributes
+    ----------
+    kind : "scarf" or "butt"
+    scarf_ratio : scarf length / thickness (8 usual, 12 for highly stressed parts)
+    thickness_m : thickness of the stock (one layer)
+    """
+
+    kind: str = "scarf"
+    scarf_ratio: float = 8.0
+    thickness_m: float = 0.006
+
+    @property
+    def overlap_m(self) -> float:
+        """Extra length each scarf joint uses."""
+        return self.scarf_ratio * self.thickness_m if self.kind == "scarf" else 0.0
+
+
+def lower_bound(piece_area: float, sheet_area: float) -> int:
+    """ceil(total piece area / sheet area): no layout can use fewer sheets.
+
+    >>> lower_bound(4 * 0.6 * 2.4, 1.22 * 2.44)
+    2
+    """
+    return int(math.ceil(piece_area / sheet_area - 1e-9))
+
+
+def joint_positions(
+    length: float,
+    usable: float,
+    joint: JointSpec,
+    avoid: tuple[float, ...] = (),
+    clearance: float = 0.15,
+) -> tuple[float, ...]:
+    """Where to cut a piece of ``length`` (m, along u) so every part fits ``usable``.
+
+    The fewest parts; the joints start evenly spaced and slide, as far as the parts
+    still fit, to keep ``clearance`` away from the positions in ``avoid`` (frames, the
+    joints of other panels and layers).  Returns the joint positions along u.
+    """
+    if length <= usable + 1e-9:
+        return ()
+    overlap = joint.overlap_m
+    if usable <= overlap + 1e-6:
+        raise PanelError(
+            f"a sheet {usable:.3f} m long is too short for a {overlap:.3f} m scarf joint"
+        )
+    parts = max(2, int(math.ceil((length - overlap) / (usable - overlap) - 1e-9)))
+    each = (length + (parts - 1) * overlap) / parts  # equal stock length per part
+    base = [each - overlap / 2 + k * (each - overlap) for k in range(parts - 1)]
+    slack = max(usable - each, 0.0)
+    # one shift for all joints keeps every part within the usable length; no part
+    # shorter than END_CLEARANCE_M where the slack allows
+    lo = max(-slack, min(0.0, END_CLEARANCE_M - base[0]))
+    hi = min(slack, max(0.0, length - END_CLEARANCE_M - base[-1]))
+    candidates = np.linspace(lo, hi, 81) if hi > lo else np.zeros(1)
+
+    def score(shift: float) -> float:
+        if not avoid:
+            return -abs(shift)
+        gaps = [min(abs(b + shift - a) for a in avoid) for b in base]
+        return min(min(gaps), clearance) - 0.05 * abs(shift)
+
+    best = max(candidates, key=score)
+    return tuple(float(b + best) for b in base)
+
+
+def split_piece(
+    polygon: shapely.Polygon, cuts: tuple[float, ...], joint: JointSpec
+) -> list[shapely.Polygon]:
+    """Cut a piece across its length at ``cuts`` (u positions).  With a scarf, each part
+    runs half the scarf length past the cut so that the two bevels overlap there."""
+    minx, miny, maxx, maxy = polygon.bounds
+    half = joint.overlap_m / 2.0
+    edges = [minx - 1.0, *cuts, maxx + 1.0]
+    parts = []
+    for k in range(len(edges) - 1):
+        lo = edges[k] - (half if k > 0 else 0.0)
+        hi = edges[k + 1] + (half if k < len(edges) - 2 else 0.0)
+        part = shapely.intersection(polygon, shapely.box(lo, miny - 1.0, hi, maxy + 1.0))
+        pieces = [g for g in shapely.get_parts(part) if g.area > 1e-8]
+        if pieces:
+            parts.append(max(pieces, key=lambda g: g.area))
+    return parts
+
+
+def butt_block(polygon: shapely.Polygon, cut: float, joint: JointSpec) -> shapely.Polygon | None:
+    """The butt block over a joint at u = ``cut``: 12 x thickness wide, as long as the
+    panel is wide there less 50 mm at each edge."""
+    line = shapely.LineString([(cut, -100.0), (cut, 100.0)])
+    chord = shapely.intersection(polygon, line)
+    if chord.is_empty:
+        return None
+    _, y0, _, y1 = chord.bounds
+    length = (y1 - y0) - 2 * BUTT_BLOCK_EDGE_GAP_M
+    width = BUTT_BLOCK_THICKNESSES * joint.thickness_m
+    if length <= 0.02 or width <= 0:
+        return None
+    return shapely.box(0.0, 0.0, length, width)
+
+
+def _normalise(poly: shapely.Polygon) -> shapely.Polygon:
+    minx, miny, _, _ = poly.bounds
+    return affinity.translate(poly, -minx, -miny)
+
+
+def _orientations(piece: LayoutPiece, grain_locked: bool) -> list[tuple[int, shapely.Polygon]]:
+    base = piece.polygon
+    if piece.mirrored:
+        base = affinity.scale(base, 1.0, -1.0, origin=(0, 0))
+    turns = (0, 180) if grain_locked else (0, 90, 180, 270)
+    out = []
+    for t in turns:
+        out.append((t, _normalise(affinity.rotate(base, t, origin=(0, 0)))))
+    return out
+
+
+class _SheetFill:
+    """Bottom-left fill of one sheet."""
+
+    def __init__(self, width: float, length: float, margin: float, kerf: float):
+        self.width, self.length, self.margin, self.kerf = width, length, margin, kerf
+        self.placed: list[shapely.Polygon] = []
+        self.placements: list[Placement] = []
+
+    def _fits(self, poly: shapely.Polygon) -> bool:
+        minx, miny, maxx, maxy = poly.bounds
+        m = self.margin
+        if minx < m - 1e-9 or miny < m - 1e-9:
+            return False
+        if maxx > self.length - m + 1e-9 or maxy > self.width - m + 1e-9:
+            return False
+        for q in self.placed:
+            qx0, qy0, qx1, qy1 = q.bounds
+            if minx >= qx1 + self.kerf or maxx <= qx0 - self.kerf:
+                continue
+            if miny >= qy1 + self.kerf or maxy <= qy0 - self.kerf:
+                continue
+            if shapely.distance(poly, q) < self.kerf - 1e-9:
+                return False
+        return True
+
+    def best_spot(self, shape: shapely.Polygon) -> tuple[float, float] | None:
+        """Lowest, then leftmost, free position for ``shape`` (normalised), or None."""
+        xs = {self.margin} | {q.bounds[2] + self.kerf for q in self.placed}
+        ys = {self.margin} | {q.bounds[3] + self.kerf for q in self.placed}
+        for y in sorted(ys):
+            for x in sorted(xs):
+                moved = affinity.translate(shape, x, y)
+                if self._fits(moved):
+                    return self._settle(shape, x, y)
+        return None
+
+    def _settle(self, shape: shapely.Polygon, x: float, y: float) -> tuple[float, float]:
+        """Slide down, then left, into hollows of irregular neighbours (bisection)."""
+        for axis in (1, 0):
+            lo = self.margin
+            hi = (x, y)[axis]
+            at = (lambda v: (x, v)) if axis == 1 else (lambda v: (v, y))
+            if hi - lo < 1e-4:
+                continue
+            if self._fits(affinity.translate(shape, *at(lo))):
+                hi = lo
+            else:
+                for _ in range(14):
+                    mid = 0.5 * (lo + hi)
+                    if self._fits(affinity.translate(shape, *at(mid))):
+                        hi = mid
+                    else:
+                        lo = mid
+            x, y = at(hi)
+        return x, y
+
+    def place(
+        self, piece: LayoutPiece, turned: int, shape: shapely.Polygon, spot: tuple[float, float]
+    ) -> None:
+        moved = affinity.translate(shape, *spot)
+        self.placed.append(moved)
+        self.placements.append(Placement(piece, moved, turned))
+
+
+def lay_out(
+    pieces: list[LayoutPiece],
+    sheet_wl: tuple[float, float],
+    margin: float = 0.005,
+    kerf: float = 0.003,
+    grain_locked: bool = True,
+    material: str = "",
+) -> Layout:
+    """Place every piece on sheets of (width, length) ``sheet_wl``: first-fit decreasing
+    by area, each piece at the lowest then leftmost free spot of the first sheet it fits.
+
+    Raises
+    ------
+    PanelError
+        If a piece fits no empty sheet (the message names it and the sheet it needs).
+    """
+    width, length = sheet_wl
+    if not (width > 0 and length > 0):
+        raise PanelError("the sheet size must be positive")
+    if not (margin > 0 and kerf > 0):
+        raise PanelError("the kerf and margin allowances must be positive")
+    if 2 * margin >= min(width, length):
+        raise PanelError("the sheet margin leaves no room on the sheet")
+    order = sorted(pieces, key=lambda p: -p.polygon.area)
+    fills: list[_SheetFill] = []
+    for piece in order:
+        shapes = _orientations(piece, grain_locked)
+        for fill in fills:
+            if _try_place(fill, piece, shapes):
+                break
+        else:
+            fill = _SheetFill(width, length, margin, kerf)
+            if not _try_place(fill, piece, shapes):
+                _, _, w_need, l_need = _need(piece, margin, grain_locked)
+                raise PanelError(
+                    f"'{piece.label}' does not fit a {width * 1000:.0f} x {length * 1000:.0f}"
+                    f" mm sheet: it needs a sheet of at least {w_need * 1000:.0f} x "
+                    f"{l_need * 1000:.0f} mm"
+                )
+            fills.append(fill)
+    sheets = tuple(
+        Sheet(width, length, material, tuple(f.placements)) for f in fills
+    )
+    area = float(sum(p.polygon.area for p in pieces))
+    sheet_area = width * length
+    util = area / (len(sheets) * sheet_area) if sheets else 0.0
+    return Layout(sheets, lower_bound(area, sheet_area) if pieces else 0, util)
+
+
+def _try_place(
+    fill: _SheetFill, piece: LayoutPiece, shapes: list[tuple[int, shapely.Polygon]]
+) -> bool:
+    """Place the piece at the lowest, then leftmost, spot over its orientations."""
+    best: tuple[tuple[float, float], int, shapely.Polygon] | None = None
+    for turned, shape in shapes:
+        spot = fill.best_spot(shape)
+        if spot is not None and (best is None or (spot[1], spot[0]) < (best[0][1], best[0][0])):
+            best = (spot, turned, shape)
+    if best is None:
+        return False
+    fill.place(piece, best[1], best[2], best[0])
+    return True
+
+
+def _need(
+    piece: LayoutPiece, margin: float, grain_locked: bool
+) -> tuple[float, float, float, float]:
+    """(u, v) extent of the piece and the (width, length) of the smallest sheet for it."""
+    minx, miny, maxx, maxy = piece.polygon.bounds
+    along, across = maxx - minx, maxy - miny
+    w, ln = across + 2 * margin, along + 2 * margin
+    if not grain_locked and w > ln:
+        w, ln = ln, w
+    return along, across, math.ceil(w * 1000 - 1e-6) / 1000, math.ceil(ln * 1000 - 1e-6) / 1000

@@ -1,0 +1,49 @@
+"""The pack command: JSON keys, and one-line refusals with exit code 2."""
+
+import json
+
+import pytest
+
+from app.cli import main, parse_sheet
+from tests.paths import SAMPLES
+
+PUNT = str(SAMPLES / "heron-punt.json")
+
+
+def test_pack_json_keys(capsys):
+    assert main(["pack", PUNT, "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert set(data) >= {"panels", "sheets", "materials"}
+    assert set(data["sheets"]) == {"size_m", "count", "lower_bound", "utilisation"}
+    assert data["sheets"]["size_m"] == [1.22, 2.44]
+    assert {"seam_m", "tape_m", "paint_l", "sheets_by_material"} <= set(data["materials"])
+    kinds = {p["kind"] for p in data["panels"]}
+    assert {"panel", "end", "frame"} <= kinds
+
+
+def test_pack_sheet_option(capsys):
+    assert main(["pack", PUNT, "--json", "--sheet", "5x8ft"]) == 0
+    assert json.loads(capsys.readouterr().out)["sheets"]["size_m"] == [1.524, 2.4384]
+
+
+@pytest.mark.parametrize(
+    "extra, message",
+    [
+        (["--kerf", "0"], "saw kerf must be a positive number"),
+        (["--margin", "-2"], "sheet margin must be a positive number"),
+        (["--scarf-ratio", "0"], "scarf ratio must be a positive number"),
+        (["--tape-roll", "-1"], "tape roll length must be a positive number"),
+        (["--sheet", "0x2440"], "must be positive"),
+        (["--sheet", "big"], "give WxH"),
+        (["--sheet", "300x2440"], "'bottom' is 806 mm wide: it needs a sheet at least 817 mm"),
+    ],
+)
+def test_pack_bad_input_is_one_line_and_exit_2(capsys, extra, message):
+    assert main(["pack", PUNT, "--json", *extra]) == 2
+    err = capsys.readouterr().err
+    assert message in err and err.count("\n") == 1
+
+
+def test_parse_sheet_units():
+    assert parse_sheet("1.25x2.5m") == (1.25, 2.5)
+    assert parse_sheet("2440 x 1220") == (1.22, 2.44)
