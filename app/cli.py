@@ -4,7 +4,10 @@ Every length may be typed as in the app: a plain number is in metres, or give a 
 and fractions ("3.6 m", "360 cm", "141 3/4 in", "11' 9 3/4\"", "2-04-3").
 
 Every bad input ends with a one-line message on stderr and exit code 2, and nothing is
-written.  Only ``plate`` and ``open`` load Qt.
+written: output paths are checked before any work and written through a temporary file
+(:mod:`hydro.outputs`), never over an input.  A reader that closes the pipe early
+(``hullwright report boat.json | head``) ends the program quietly.  Anything unexpected is
+still one line on stderr, with exit code 70.  Only ``plate`` and ``open`` load Qt.
 """
 
 from __future__ import annotations
@@ -12,7 +15,9 @@ from __future__ import annotations
 import argparse
 import json
 import math
+import os
 import sys
+import typing
 from pathlib import Path
 from typing import TYPE_CHECKING, Sequence
 
@@ -33,7 +38,9 @@ from hydro import (
     write_offsets,
 )
 from hydro import aids, heel_checks, incline, whatif
+from hydro import limits
 from hydro.io import read_incline_readings
+from hydro.outputs import check_output, write_via_temp
 from hydro.loads import water_density
 from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
@@ -44,10 +51,34 @@ if TYPE_CHECKING:
     from hydro.build_pack import PackSettings
 
 EXIT_BAD_INPUT = 2
+#: Something went wrong that is not the input's fault (still one line, nothing written).
+EXIT_INTERNAL = 70
 
 
 class BadInput(Exception):
     """A problem with what the user asked for (message shown as is)."""
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse with the program's convention: one line on stderr, exit code 2."""
+
+    def error(self, message: str) -> typing.NoReturn:
+        self.exit(EXIT_BAD_INPUT, f"hullwright: {message} (see {self.prog} --help)\n")
+
+
+def _number(low: float, high: float, what: str) -> typing.Callable[[str], float]:
+    """An argparse type: a finite number from low to high."""
+
+    def convert(text: str) -> float:
+        try:
+            v = float(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"{what} must be a number, not '{text[:40]}'") from None
+        if not (math.isfinite(v) and low <= v <= high):
+            raise argparse.ArgumentTypeError(f"{what} must be from {low:g} to {high:g}")
+        return v
+
+    return convert
 
 
 def _length(text: str | None, what: str, low: float, high: float) -> float | None:
@@ -74,7 +105,7 @@ def _lengths(text: str, count: int, what: str) -> tuple[float, ...]:
 
 
 def _parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(
+    p = _Parser(
         prog="hullwright",
         description="Hydrostatics and stability of small hand-built boats. "
         "A design aid, not a certification.",
@@ -83,11 +114,14 @@ def _parser() -> argparse.ArgumentParser:
     r = sub.add_parser("report", help="print the hydrostatics and righting-arm curve")
     r.add_argument("design", nargs="?", help="design file (.json)")
     r.add_argument("--offsets", help="analyse a table of offsets (.csv) instead of a design")
-    r.add_argument("--mass", type=float, help="with --offsets: total mass in kg")
+    r.add_argument("--mass", type=_number(0.001, limits.MAX_DISPLACEMENT_KG, "--mass"),
+                   help="with --offsets: total mass in kg")
     r.add_argument("--cg", help="with --offsets: centre of gravity X,Y,Z in metres")
     r.add_argument("--water", default="fresh", help="fresh, sea or a density in kg/m3")
-    r.add_argument("--heel-step", type=float, help="heel step in degrees (default 1)")
-    r.add_argument("--heel-max", type=float, help="largest heel in degrees (default 90)")
+    r.add_argument("--heel-step", type=_number(0.1, 15.0, "--heel-step"),
+                   help="heel step in degrees (default 1)")
+    r.add_argument("--heel-max", type=_number(5.0, 180.0, "--heel-max"),
+                   help="largest heel in degrees (default 90)")
     r.add_argument("--json", action="store_true", help="print SI values as JSON")
     r.add_argument("--units", choices=["si", "metric", "imperial"], default="si",
                    help="lengths in metres (si), millimetres (metric) or inches and fractions")
@@ -107,7 +141,8 @@ def _parser() -> argparse.ArgumentParser:
     group.add_argument("--distance", metavar="LENGTH",
                        help="shift each by this length (default: to the side at seat height)")
     group.add_argument("--gunwale", action="store_true", help="shift them onto the gunwale")
-    ck.add_argument("--boarding-mass", type=float, default=75.0, help="person climbing aboard, kg (default 75)")
+    ck.add_argument("--boarding-mass", type=_number(1.0, limits.MAX_CREW_KG, "--boarding-mass"),
+                    default=75.0, help="person climbing aboard, kg (default 75)")
     ck.add_argument("--target-gm", metavar="LENGTH", default=None,
                     help="target GM for the beam aid (default 0.15 m)")
     ck.add_argument("--json", action="store_true")
@@ -115,7 +150,8 @@ def _parser() -> argparse.ArgumentParser:
     inc.add_argument("design")
     inc.add_argument("readings", help="CSV: mass_kg,distance_m,heel_deg (or pendulum_length_m,deflection_m)")
     how = inc.add_mutually_exclusive_group(required=True)
-    how.add_argument("--mass", type=float, help="weighed mass of the boat as tested, kg")
+    how.add_argument("--mass", type=_number(0.1, limits.MAX_DISPLACEMENT_KG, "--mass"),
+                     help="weighed mass of the boat as tested, kg")
     how.add_argument("--freeboards", help="measured freeboards AFT,FORE in metres")
     inc.add_argument("--no-correction", action="store_true", help="skip the wall-sided correction")
     inc.add_argument("--json", action="store_true")
@@ -163,8 +199,6 @@ def _settings(args: argparse.Namespace, base: AnalysisSettings) -> AnalysisSetti
 def _lumped_load(args: argparse.Namespace) -> Loads:
     if args.mass is None or args.cg is None:
         raise BadInput("--offsets needs --mass KG and --cg X,Y,Z")
-    if not math.isfinite(args.mass) or args.mass <= 0:
-        raise BadInput("--mass must be a positive number of kilograms")
     x, y, z = _lengths(args.cg, 3, "--cg X,Y,Z")
     return Loads(items=(MassItem("lumped load", args.mass, x, y, z),))
 
@@ -175,6 +209,11 @@ def _report(args: argparse.Namespace) -> tuple[Analysis, str]:
             raise BadInput("give either a design file or --offsets, not both")
         loads = _lumped_load(args)
         rho = water_density(args.water)
+        if not limits.MIN_WATER_DENSITY <= rho <= limits.MAX_WATER_DENSITY:
+            raise BadInput(
+                f"--water {rho:g} kg/m3 is not water (from {limits.MIN_WATER_DENSITY:g} "
+                f"to {limits.MAX_WATER_DENSITY:g} kg/m3)"
+            )
         settings = _settings(args, AnalysisSettings())
         stations = read_offsets(args.offsets)
         return analyse_stations(stations, loads, rho, settings), Path(args.offsets).stem
@@ -209,6 +248,8 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
         return f"{v:.{digits}f} m" if u is None else u.length_text(v)
 
     def M(v: float) -> str:  # a mass
+        if not math.isfinite(v):
+            return "-"
         return f"{v:.1f} kg" if u is None else u.mass_text(v)
 
     lines = [f"Hullwright report: {name}", f"Status: {a.message}", ""]
@@ -286,14 +327,23 @@ def _heel_dict(c: "heel_checks.HeelCheck") -> dict:
     }
 
 
+def _crew_numbers(text: str, crew: int) -> list[int]:
+    """Indices from "--crew 1,3" (numbered from 1), each once and each aboard."""
+    try:
+        numbers = [int(v) for v in text.split(",")]
+    except ValueError:
+        raise BadInput("--crew takes crew numbers from 1, e.g. 1,2") from None
+    if len(set(numbers)) != len(numbers):
+        raise BadInput("--crew names the same person twice")
+    wrong = [n for n in numbers if not 1 <= n <= crew]
+    if wrong:
+        raise BadInput(f"--crew {wrong[0]}: the design has {crew} crew, numbered from 1")
+    return [n - 1 for n in numbers]
+
+
 def _check(args: argparse.Namespace) -> None:
     design = load_design(args.design)
-    members = None
-    if args.crew:
-        try:
-            members = [int(v) - 1 for v in args.crew.split(",")]
-        except ValueError:
-            raise BadInput("--crew takes crew numbers from 1, e.g. 1,2") from None
+    members = None if args.crew is None else _crew_numbers(args.crew, len(design.loads.crew))
     analysis = analyse(design)
     if analysis.hydrostatics is None:
         raise BadInput(analysis.message)
@@ -334,7 +384,7 @@ def _check(args: argparse.Namespace) -> None:
                 "message": swamp.message,
             },
         }
-        print(json.dumps(out, indent=2, allow_nan=False))
+        print(_json(out))
         return
     lines = [f"Builder's checks: {design.name}", "", shift.message, board.message]
     lines += [t.message for t in trims]
@@ -359,33 +409,29 @@ def _incline(args: argparse.Namespace) -> None:
         freeboards = (aft, fore)
     res = incline.inclining_test(design, readings, args.mass, freeboards, not args.no_correction)
     if args.json:
-        print(json.dumps({
+        print(_json({
             "GM_m": res.gm, "KM_m": res.km, "KG_m": res.kg, "displacement_kg": res.displacement,
             "predicted_KG_m": res.predicted_kg, "wall_sided_correction": res.corrected,
             "per_reading_GM_m": res.per_reading_gm.tolist(), "warnings": list(res.warnings), "message": res.message,
-        }, indent=2, allow_nan=False))
+        }))
         return
     lines = [res.message, "", "  reading   tan(heel)   GM from it (mm)"]
     for i, (t, g) in enumerate(zip(res.tan_heel, res.per_reading_gm), start=1):
-        lines.append(f"  {i:7d}   {t:9.5f}   {g * 1000:15.1f}")
+        lines.append(f"  {i:7d}   {_fmt(t, 5):>9}   {_fmt(g * 1000, 1):>15}")
     lines += [""] + [f"Warning: {w}" for w in res.warnings]
     print("\n".join(lines).rstrip())
 
 
 def _offsets(args: argparse.Namespace) -> None:
-    out = Path(args.output)
-    if not out.parent.exists():
-        raise BadInput(f"folder {out.parent} does not exist")
+    check_output(args.output, [args.design])
     stations = load_design(args.design).stations()
-    write_offsets(stations, out)
+    write_offsets(stations, args.output, [args.design])
 
 
 def _plate(args: argparse.Namespace) -> None:
-    out = Path(args.output)
+    out = check_output(args.output, [args.design])
     if out.suffix.lower() not in (".png", ".pdf"):
         raise BadInput("the plate file must end in .png or .pdf")
-    if not out.parent.exists():
-        raise BadInput(f"folder {out.parent} does not exist")
     if not 72 <= args.dpi <= 600:
         raise BadInput("--dpi must be between 72 and 600")
     design = load_design(args.design)
@@ -394,7 +440,13 @@ def _plate(args: argparse.Namespace) -> None:
     if args.paper.upper() not in {k.upper() for k in PAPER_SIZES}:
         raise BadInput(f"--paper must be one of {', '.join(PAPER_SIZES)}")
     paper = next(k for k in PAPER_SIZES if k.upper() == args.paper.upper())
-    render_plate_file(design, out, paper=paper, dpi=args.dpi, units=args.units, source=Path(args.design).name)
+    write_via_temp(
+        args.output,
+        lambda tmp: render_plate_file(
+            design, tmp, paper=paper, dpi=args.dpi, units=args.units, source=Path(args.design).name
+        ),
+        [args.design],
+    )
 
 
 def _resize(args: argparse.Namespace) -> None:
@@ -410,6 +462,7 @@ def _resize(args: argparse.Namespace) -> None:
         raise BadInput(f"folder {out.parent} does not exist")
     if out.exists() and out.resolve() == Path(args.design).resolve():
         raise BadInput("write the resized design to a new file, not over the original")
+    check_output(out, [args.design])
     design = load_design(args.design)
     save_design(resize_design(design, length, beam, depth), out)
 
@@ -477,39 +530,111 @@ def _pack(args: argparse.Namespace) -> None:
     design = load_design(args.design)
     pack = build_pack(design, settings)
     if args.json:
-        print(json.dumps(pack_dict(pack), indent=2, allow_nan=False))
+        print(_json(pack_dict(pack)))
+
+
+def _run(args: argparse.Namespace) -> int:
+    if args.command == "report":
+        analysis, name = _report(args)
+        _refuse_non_finite(analysis)
+        if args.json:
+            print(_json(report_dict(analysis, name)))
+        else:
+            print(format_report(analysis, name, args.units))
+    elif args.command == "offsets":
+        _offsets(args)
+    elif args.command == "check":
+        _check(args)
+    elif args.command == "incline":
+        _incline(args)
+    elif args.command == "plate":
+        _plate(args)
+    elif args.command == "resize":
+        _resize(args)
+    elif args.command == "pack":
+        _pack(args)
+    elif args.command == "open":
+        from app.main import main as gui_main
+
+        return gui_main([args.design] if args.design else [])
+    sys.stdout.flush()
+    return 0
+
+
+def _refuse_non_finite(a: Analysis) -> None:
+    """A result that overflowed is refused, never printed as a number."""
+    limits.check_finite("the displacement", a.weights.mass)
+    limits.check_finite("the centre of gravity", a.weights.lcg + a.weights.tcg + a.weights.kg)
+    h = a.hydrostatics
+    if h is not None:
+        limits.check_finite("the draft", h.draft_mid)
+        limits.check_finite("the volume", h.volume)
+
+
+def _json(data: object) -> str:
+    """JSON text with any non-finite number written as null (never NaN or Infinity)."""
+
+    def clean(v: object) -> object:
+        if isinstance(v, float):
+            return v if math.isfinite(v) else None
+        if isinstance(v, dict):
+            return {k: clean(x) for k, x in v.items()}
+        if isinstance(v, (list, tuple)):
+            return [clean(x) for x in v]
+        if isinstance(v, np.ndarray):
+            return clean(v.tolist())
+        if isinstance(v, np.floating):
+            return clean(float(v))
+        return v
+
+    return json.dumps(clean(data), indent=2, allow_nan=False)
+
+
+def _say(message: str) -> None:
+    """One line on stderr, whatever the message holds."""
+    line = " ".join(str(message).split()) or "unknown problem"
+    try:
+        print(f"hullwright: {line}", file=sys.stderr)
+    except (OSError, ValueError):
+        pass
+
+
+def _quiet_stdout() -> None:
+    """After a closed pipe: point stdout at /dev/null so the exit flush cannot fail."""
+    try:
+        fd = sys.stdout.fileno()
+    except (AttributeError, OSError, ValueError):
+        return
+    devnull = os.open(os.devnull, os.O_WRONLY)
+    os.dup2(devnull, fd)
+    os.close(devnull)
 
 
 def main(argv: Sequence[str] | None = None) -> int:
-    args = _parser().parse_args(argv)
+    """Run the command line; returns the exit code (0, 2 bad input, 70 unexpected)."""
+    try:
+        args = _parser().parse_args(argv)
+    except SystemExit as e:  # --help (0) or a usage error (2, already said)
+        return e.code if isinstance(e.code, int) else EXIT_BAD_INPUT
     keep_freed_memory()
     try:
-        if args.command == "report":
-            analysis, name = _report(args)
-            if args.json:
-                print(json.dumps(report_dict(analysis, name), indent=2, allow_nan=False))
-            else:
-                print(format_report(analysis, name, args.units))
-        elif args.command == "offsets":
-            _offsets(args)
-        elif args.command == "check":
-            _check(args)
-        elif args.command == "incline":
-            _incline(args)
-        elif args.command == "plate":
-            _plate(args)
-        elif args.command == "resize":
-            _resize(args)
-        elif args.command == "pack":
-            _pack(args)
-        elif args.command == "open":
-            from app.main import main as gui_main
-
-            return gui_main([args.design] if args.design else [])
+        return _run(args)
+    except BrokenPipeError:
+        _quiet_stdout()
+        return 0
     except (HullwrightError, BadInput) as e:
-        print(f"hullwright: {e}", file=sys.stderr)
-        return EXIT_BAD_INPUT
-    return 0
+        _say(str(e))
+    except MemoryError:
+        _say("not enough memory for this input; nothing was written")
+    except RecursionError:
+        _say("the input is nested too deeply; nothing was written")
+    except KeyboardInterrupt:
+        _say("interrupted; nothing was written")
+        return 130
+    except Exception as e:  # the boundary: never a traceback
+        _say(f"unexpected problem ({type(e).__name__}: {e}); nothing was written - please report it")
+        return EXIT_INTERNAL
+    return EXIT_BAD_INPUT
 
 
 if __name__ == "__main__":

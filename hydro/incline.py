@@ -184,6 +184,20 @@ def inclining_test(
     except HullwrightError:
         predicted = None
     kg = hs.km - gm
+    stations = design.stations()
+    gunwale_kg = float(np.max(stations.gunwale[:, 1])) - stations.keel_z
+    if not math.isfinite(kg):
+        raise LoadError("the readings give no finite KG: check the weights, distances and heels")
+    if kg < 0:
+        warnings.append(
+            f"the measured KG ({kg * 1000:.0f} mm) is below the keel, which cannot be: check the "
+            "weighed mass, the weights' distances and the heel readings"
+        )
+    elif kg > gunwale_kg:
+        warnings.append(
+            f"the measured KG ({kg * 1000:.0f} mm) is above the gunwale ({gunwale_kg * 1000:.0f} mm): "
+            "check the weighed mass, the weights' distances and the heel readings"
+        )
     msg = f"Measured GM {gm * 1000:.0f} mm, KG {kg * 1000:.0f} mm at {delta:.1f} kg"
     if predicted is not None:
         msg += f" (design estimate KG {predicted * 1000:.0f} mm)"

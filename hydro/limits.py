@@ -50,6 +50,7 @@ __all__ = [
     "MAX_COORDINATE_M",
     "MAX_CREW_KG",
     "MAX_ITEM_KG",
+    "MAX_DISPLACEMENT_KG",
     "MIN_WATER_DENSITY",
     "MAX_WATER_DENSITY",
     "check_count",
@@ -110,6 +111,8 @@ MAX_COORDINATE_M = 100.0
 MAX_CREW_KG = 300.0
 #: One lumped item (ballast, engine, gear).
 MAX_ITEM_KG = 5000.0
+#: Everything aboard together (a big raft with its crew is a few tonnes).
+MAX_DISPLACEMENT_KG = 20_000.0
 #: Water: fresh ~998, sea ~1025, the saltiest lakes ~1250 (common practice, no source).
 MIN_WATER_DENSITY = 950.0
 MAX_WATER_DENSITY = 1300.0
@@ -233,6 +236,11 @@ def check_design(design: Design) -> None:
     for it in loads.items:
         if not it.mass <= MAX_ITEM_KG:
             raise LimitError(f"item '{it.name}' weighs {it.mass:g} kg (at most {MAX_ITEM_KG:g} kg)")
+    total = sum(c.mass for c in loads.crew) + sum(it.mass for it in loads.items)
+    if not total <= MAX_DISPLACEMENT_KG:
+        raise LimitError(
+            f"crew and items weigh {total:g} kg together (at most {MAX_DISPLACEMENT_KG:g} kg)"
+        )
     if not isinstance(design.water, str):
         rho = float(design.water)
         if not MIN_WATER_DENSITY <= rho <= MAX_WATER_DENSITY:

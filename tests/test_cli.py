@@ -58,8 +58,8 @@ def test_offsets_then_report_on_the_table(tmp_path, capsys):
         (["report", "nope.json"], "no such file"),
         (["report"], "give a design file"),
         (["report", "--offsets", "x.csv"], "needs --mass"),
-        (["report", PUNT, "--heel-step", "0"], "heel step"),
-        (["report", PUNT, "--heel-max", "500"], "largest heel"),
+        (["report", PUNT, "--heel-step", "0"], "--heel-step must be from 0.1 to 15"),
+        (["report", PUNT, "--heel-max", "500"], "--heel-max must be from 5 to 180"),
         (["offsets", PUNT, "-o", "/no/such/folder/x.csv"], "does not exist"),
     ],
 )
@@ -73,7 +73,7 @@ def test_bad_offsets_options(tmp_path, capsys):
     csv_path = tmp_path / "hull.csv"
     assert main(["offsets", PUNT, "-o", str(csv_path)]) == 0
     for extra, message in (
-        (["--mass", "-3", "--cg", "1,0,0.2"], "--mass must be a positive"),
+        (["--mass", "-3", "--cg", "1,0,0.2"], "--mass must be from"),
         (["--mass", "100", "--cg", "1,0"], "--cg must be three numbers"),
         (["--mass", "100", "--cg", "1,0,0.2", "--water", "mud"], "unknown water"),
     ):
@@ -108,7 +108,7 @@ def test_check_command_text_and_bad_crew(capsys):
     assert main(["check", PUNT, "--crew", "x"]) == 2
     assert "crew numbers" in capsys.readouterr().err
     assert main(["check", PUNT, "--crew", "7"]) == 2
-    assert "choose crew" in capsys.readouterr().err
+    assert "the design has 2 crew" in capsys.readouterr().err
 
 
 def test_incline_command(tmp_path, capsys):
