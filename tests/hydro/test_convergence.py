@@ -8,9 +8,11 @@ Reference values: Wigley (1934) closed forms (C_B = 4/9, BM_L = 3L^2/(40T)).
 """
 
 import numpy as np
+import pytest
 
 from hydro.analytic import wigley
 from hydro.sections import build_section_table, cut, heel_frame
+from tests.sources import BURDEN, WIGLEY
 
 L, B, T = 4.0, 0.5, 0.2
 
@@ -26,6 +28,7 @@ def _errors(n: int) -> tuple[float, float]:
     return abs(vol / (4 / 9 * L * B * T) - 1), abs(i_l / vol / (3 * L**2 / (40 * T)) - 1)
 
 
+@pytest.mark.source(f"{BURDEN}; {WIGLEY}: C_B = 4/9, BM_L = 3L^2/(40T)")
 def test_error_is_second_order_in_station_spacing():
     e = {n: _errors(n) for n in (11, 21, 41, 81)}
     for coarse, fine in ((11, 21), (21, 41), (41, 81)):

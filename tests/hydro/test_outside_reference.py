@@ -3,7 +3,8 @@ trimesh (a general-purpose mesh library from PyPI): it slices a closed triangle 
 the same stations by the same plane, caps the cut, and integrates the closed solid.
 
 Between stations our engine takes section quantities as linear in x, while the mesh is
-ruled (area quadratic in x); with 81 stations the two agree far inside 0.1 %.
+ruled (area quadratic in x).  Measured with 81 stations: volume within 0.034 %, centre of
+buoyancy within 0.033 mm; the tolerances are about 1.5-3 times those.
 """
 
 import numpy as np
@@ -15,6 +16,7 @@ pytest.importorskip("scipy")
 from hydro import generate_stations, load_design  # noqa: E402
 from hydro.sections import build_section_table, cut, heel_frame  # noqa: E402
 from tests.paths import SAMPLES  # noqa: E402
+from tests.sources import TRIMESH  # noqa: E402
 
 
 def _mesh(stations):
@@ -38,6 +40,7 @@ def _mesh(stations):
     return mesh
 
 
+@pytest.mark.source(TRIMESH)
 @pytest.mark.parametrize("heel_deg,tau,h", [(0.0, 0.0, 0.09), (20.0, 0.02, 0.12), (35.0, -0.03, 0.05)])
 def test_volume_and_centroid_match_trimesh(heel_deg, tau, h):
     design = load_design(SAMPLES / "heron-punt.json")
@@ -45,7 +48,7 @@ def test_volume_and_centroid_match_trimesh(heel_deg, tau, h):
     mesh = _mesh(stations)
     assert mesh.is_watertight
     table = build_section_table(stations)
-    assert mesh.volume == pytest.approx(table.totals[0] @ table.weights, rel=1e-3)
+    assert mesh.volume == pytest.approx(table.totals[0] @ table.weights, rel=5e-5)
 
     phi = np.radians(heel_deg)
     normal = np.array([-tau, -np.sin(phi), np.cos(phi)])  # water: normal . p < h
@@ -59,10 +62,11 @@ def test_volume_and_centroid_match_trimesh(heel_deg, tau, h):
     xi, eta = (c.q_xi[0] @ table.weights) / vol, (c.q_eta[0] @ table.weights) / vol
     y_b = np.cos(phi) * xi - np.sin(phi) * eta
     z_b = np.sin(phi) * xi + np.cos(phi) * eta
-    assert vol == pytest.approx(wet.volume, rel=1e-3)
-    np.testing.assert_allclose([x_b, y_b, z_b], wet.center_mass, atol=1e-3 * stations.length)
+    assert vol == pytest.approx(wet.volume, rel=5e-4)
+    np.testing.assert_allclose([x_b, y_b, z_b], wet.center_mass, rtol=0, atol=1e-4)
 
 
+@pytest.mark.source(TRIMESH)
 def test_free_trim_equilibrium_checked_by_trimesh():
     """At the solved heeled, trimmed waterline of an unevenly loaded boat, trimesh's
     immersed solid must displace Delta/rho and have its centroid B level with G along the
@@ -92,15 +96,15 @@ def test_free_trim_equilibrium_checked_by_trimesh():
 
     normal = np.array([-tau, -s, c])
     wet = _mesh(stations).slice_plane(normal * h / normal.dot(normal), -normal, cap=True)
-    assert wet.volume == pytest.approx(volume, rel=1e-3)
+    assert wet.volume == pytest.approx(volume, rel=4e-4)  # measured 1.9e-4
     n = normal / np.linalg.norm(normal)
     along = np.array([1.0, 0.0, 0.0]) - n[0] * n  # the hull's axis made horizontal
     along /= np.linalg.norm(along)
     b_minus_g = wet.center_mass - np.array([w.lcg, w.tcg, w.vcg])
-    # 0.3 mm on a 2.6 m hull: the two differ only by linear vs ruled interpolation
-    # between stations (about 0.07 mm here); a pitch balance 10 % off moves B 1.7 mm
-    assert abs(b_minus_g @ along) < 3e-4
+    # 0.15 mm on a 2.6 m hull: the two differ only by linear vs ruled interpolation
+    # between stations (0.074 mm here); a pitch balance 10 % off moves B 1.7 mm
+    assert abs(b_minus_g @ along) < 1.5e-4
     gz_trimesh = b_minus_g[1] * c + b_minus_g[2] * s
     base = upright(table, w, rho)
     ours = righting_curve(table, w, rho, base, np.array([25.0]))
-    assert ours.gz[0] == pytest.approx(gz_trimesh, abs=3e-4)
+    assert ours.gz[0] == pytest.approx(gz_trimesh, abs=1e-5)  # measured 1.3e-6 m

@@ -8,6 +8,7 @@ from hypothesis import strategies as st
 from hydro.hull import Curve, HullSketch, SectionShape, generate_stations
 from hydro.sections import build_section_table, cut, heel_frame
 from tests.hydro.helpers import run
+from tests.sources import SCIPY, SHAPELY
 
 SETTINGS = settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
@@ -79,10 +80,28 @@ def test_scaling_laws(sketch, k):
     assert b.curve.gz[1] == pytest.approx(a.curve.gz[1] * k, rel=1e-6, abs=1e-9)
 
 
-@SETTINGS
+@pytest.mark.source(f"{SHAPELY}; {SCIPY}")
+@settings(SETTINGS, max_examples=12)  # each example root-finds a shapely waterline
 @given(sketches(), st.floats(5.0, 70.0))
-def test_free_trim_balances_pitch(sketch, heel):
-    """At the solved waterline the volume is right and B lies under G along the hull."""
+def test_free_trim_balances_volume_and_pitch(sketch, heel):
+    """At the engine's heel and trim, shapely's sections with a waterline root-found by
+    brentq displace Delta/rho; there B lies on the normal to the water through G (no
+    pitching moment) and gives the engine's GZ."""
+    import math
+
+    from tests.hydro.reference import hull_float, hull_level
+
     stations, mass, x = _light_load(sketch)
-    r = run(stations, mass, x * 0.9, 0.2, np.array([heel]))
+    kg = 0.2
+    r = run(stations, mass, x * 0.9, kg, np.array([heel]))
     assert r.curve.converged.all()
+    phi = math.radians(heel)
+    tau = math.tan(math.radians(r.curve.trim_deg[0]))
+    volume = mass / 1000.0
+    level = hull_level(stations.x, stations.half_sections, phi, tau, volume)
+    ref = hull_float(stations.x, stations.half_sections, phi, level, tau)
+    xi_g, eta_g = kg * math.sin(phi), kg * math.cos(phi)
+    length = float(stations.x[-1] - stations.x[0])
+    pitch = (ref.x_b - x * 0.9) + tau * (ref.eta_b - eta_g)
+    assert abs(pitch) < 1e-7 * length
+    assert r.curve.gz[0] == pytest.approx(ref.xi_b - xi_g, abs=1e-7 * length)

@@ -11,6 +11,7 @@ from shapely import affinity
 
 from hydro.hull import Stations
 from hydro.sections import build_section_table, cut, heel_frame
+from tests.sources import SHAPELY
 
 HALVES = {
     "twin pontoon": np.array([[0, 0.5], [0.3, 0.5], [0.3, 0.1], [0.45, 0], [0.6, 0.1], [0.6, 0.6]]),
@@ -33,6 +34,7 @@ def _shapely_cut(half: np.ndarray, phi: float, h: float) -> tuple[float, float, 
     return wet.area, wet.area * wet.centroid.x, wet.area * wet.centroid.y, line.length
 
 
+@pytest.mark.source(SHAPELY)
 @pytest.mark.parametrize("heel", [0.0, 7.0, 33.0, 80.0, 125.0, -20.0])
 def test_cut_matches_shapely_clipping(heel):
     names = list(HALVES)
