@@ -40,6 +40,7 @@ from tests.sources import (
     CFR_170_090,
     IMO_IS,
     ISO_12217_3,
+    MGN_280,
     SCIPY,
     SHAPELY,
     TUPPER,
@@ -316,3 +317,29 @@ def test_swamping_and_reserve():
     assert swamping(foam).floats_swamped is True
     closed = box_design(crew=(CrewMember("a", 1.5, 70.0),), materials=(board,), open_boat=False)
     assert swamping(closed).floats_swamped is None
+
+
+@pytest.mark.source(f"{MGN_280}: 75 mm freeboard with the crew to one side")
+def test_shifted_freeboard_below_75_mm_is_flagged():
+    """A box with 0.12 m freeboard: a 0.5 m crew shift leaves the low gunwale 75 mm or
+    less above the water (closed form (f - (B/2) tan) cos), and the message says so."""
+    from hydro.heel_checks import MIN_SHIFTED_FREEBOARD_M
+
+    assert MIN_SHIFTED_FREEBOARD_M == 0.075
+    d = box_design(D=0.25, items=(MassItem("load", 380.0, 1.5, 0.0, 0.15),),
+                   crew=(CrewMember("sitter", 1.5, 80.0, 0.0, 0.0, 0.3),))
+    delta, T, kg, bm, gm = box_closed(3.0, 1.2, [(380.0, 0.15), (80.0, 0.3)])
+    check = crew_shift(d, distance=0.5)
+    heel = wall_sided_heel(80.0 * 0.5 / delta, gm, bm)
+    t = math.radians(heel)
+    fb = (0.25 - T - 0.6 * math.tan(t)) * math.cos(t)
+    assert 0 < fb < 0.075
+    assert check.low_freeboard == pytest.approx(fb, abs=1e-6)
+    assert check.verdict == "holds" and "less than the 75 mm suggested" in check.message
+
+
+@pytest.mark.source(f"{IMO_IS}, Part A general criteria: GM0 at least 0.15 m (section number from memory)")
+def test_default_target_gm():
+    from hydro.design import TARGET_GM_M
+
+    assert TARGET_GM_M == 0.15

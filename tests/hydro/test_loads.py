@@ -8,8 +8,10 @@ import pytest
 from hydro import CrewMember, LoadError, Loads, MassItem, Material, weight_build_up
 from hydro.analytic import box
 from hydro.loads import shell_panels, water_density
+from tests.sources import CFR_170_090, CGPM, IMO_A749, IMO_IS, ISO_14946, ITTC, BARRASS
 
 
+@pytest.mark.source(IMO_A749 + ": seated passenger's centre of gravity 0.30 m above the seat")
 def test_crew_cg_stands_on_the_inner_bottom():
     st = box(3.0, 1.0, 0.5)
     loads = Loads(crew=(CrewMember("a", 1.0, 80.0, 0.1, 0.05, 0.30),), bottom_thickness=0.01)
@@ -43,11 +45,18 @@ def test_bilge_water_volume():
     assert water.z == pytest.approx(0.02)
 
 
-def test_water_presets_and_typed_density():
-    # ITTC 7.5-02-01-03 Table 1: fresh water 998.2072 kg/m3 at 20 degC
+@pytest.mark.source(f"{ITTC}, fresh water at 20 degC: 998.2072 kg/m3")
+def test_fresh_water_density():
     assert water_density("fresh") == pytest.approx(998.2072, abs=0.01)
-    # ship practice 1.025 t/m3 (Barrass & Derrett); ITTC Table 3: 1024.81 at 20 degC
+
+
+@pytest.mark.source(f"{BARRASS}: sea water 1.025 t/m3; {ITTC}, seawater at 20 degC: 1024.81 kg/m3")
+def test_sea_water_density():
+    assert water_density("sea") == pytest.approx(1025.0, abs=1e-9)
     assert water_density("sea") == pytest.approx(1024.81, abs=0.25)
+
+
+def test_typed_density():
     assert water_density("1010") == 1010.0
     with pytest.raises(LoadError, match="unknown water"):
         water_density("swamp")
@@ -92,3 +101,25 @@ def test_load_too_heavy_is_a_result_not_an_error():
     assert a.status == "sinks" and "stand on end" in a.message
     a = analyse_stations(st, Loads(items=(MassItem("m", 300.0, 1.5, 0.0, 0.9),)), 1000.0)
     assert a.status == "unstable" and a.hydrostatics.gm < 0
+
+
+@pytest.mark.source(f"{ISO_14946}; {IMO_IS}: 75 kg per person")
+def test_design_crew_mass():
+    from hydro import CREW_MASS_KG
+
+    assert CREW_MASS_KG == 75.0
+    assert CrewMember("a", 1.0).mass == 75.0
+
+
+@pytest.mark.source(CFR_170_090 + "; 1 lb = 0.45359237 kg exactly")
+def test_heavier_crew_option():
+    from hydro import HEAVY_CREW_MASS_KG
+
+    assert HEAVY_CREW_MASS_KG == pytest.approx(185 * 0.45359237, abs=0.1)
+
+
+@pytest.mark.source(CGPM)
+def test_standard_gravity():
+    from hydro import G_STANDARD
+
+    assert G_STANDARD == 9.80665
