@@ -47,6 +47,7 @@ from hydro import (
     load_design,
     save_design,
 )
+from hydro import limits
 from hydro.curves import sample_polyline
 from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
 from hydro.loads import validate_loads
@@ -69,7 +70,9 @@ _CACHE_SIZE = 16
 
 
 def check_design(design: Design) -> None:
-    """Raise :class:`hydro.HullwrightError` if the design cannot be analysed."""
+    """Raise :class:`hydro.HullwrightError` if the design cannot be analysed, or is beyond
+    the budgets and small-craft limits of :mod:`hydro.limits` (as a file would be)."""
+    limits.check_design(design)
     if isinstance(design.hull, HullSketch):
         stations = generate_stations(design.hull, count=3)
     else:
@@ -455,10 +458,12 @@ class HullDocument(QObject):
                 self._cache.move_to_end(design)
                 while len(self._cache) > _CACHE_SIZE:
                     self._cache.popitem(last=False)
-        except HullwrightError as e:
+        except Exception as e:  # the boundary: any failure is shown in words
             self._analysis = None
             self._analysed = None
-            self._analysis_error = str(e)
+            self._analysis_error = str(e) if isinstance(e, HullwrightError) else (
+                f"the analysis failed ({type(e).__name__}: {e})"
+            )
             self.analysisFailed.emit(self._analysis_error)
             return
         self._publish(result, design, rough)

@@ -10,7 +10,7 @@ from PySide6.QtWidgets import QApplication
 
 import pyqtgraph as pg  # noqa: E402 - PySide6 first, so pyqtgraph binds to it
 
-from hydro import DesignFileError, load_design
+from hydro import HullwrightError, load_design
 from hydro.runtime import keep_freed_memory
 
 from app.document import HullDocument, starter_design
@@ -23,20 +23,40 @@ __all__ = ["main", "create_window"]
 def create_window(argv: Sequence[str]) -> tuple[MainWindow, str]:
     """The main window on the design named in ``argv`` (or the first sample).
 
-    Returns the window and an error message ("" if the file opened).
+    A file that cannot be opened, for whatever reason, gives a new design and the
+    message.  Returns the window and an error message ("" if the file opened).
     """
     error = ""
     design, path = None, None
     if argv:
         try:
             design, path = load_design(argv[0]), Path(argv[0]).resolve()
-        except DesignFileError as e:
-            error = str(e)
+        except Exception as e:  # the boundary: start anyway, say why
+            error = str(e) if isinstance(e, HullwrightError) else f"{type(e).__name__}: {e}"
+            design = starter_design()
     if design is None:
         samples = sample_paths()
-        design = load_design(samples[0]) if samples else starter_design()
+        try:
+            design = load_design(samples[0]) if samples else starter_design()
+        except HullwrightError:
+            design = starter_design()
     window = MainWindow(HullDocument(design, path), open_settings())
     return window, error
+
+
+def _shown_in_words(window: MainWindow):
+    """The last boundary: an exception that escapes a slot is shown in a message (and one
+    line on stderr); the window and its design stay as they are."""
+
+    def hook(kind, error, _traceback) -> None:
+        if issubclass(kind, KeyboardInterrupt):
+            QApplication.quit()
+            return
+        words = str(error) if isinstance(error, HullwrightError) else f"{kind.__name__}: {error}"
+        print(f"hullwright: unexpected problem: {words}", file=sys.stderr)
+        window.show_message("Something went wrong", f"{words}\n\nThe design on screen is kept; save it.")
+
+    return hook
 
 
 def main(argv: Sequence[str] | None = None) -> int:
@@ -50,8 +70,9 @@ def main(argv: Sequence[str] | None = None) -> int:
     keep_freed_memory()
     window, error = create_window(args)
     window.show()
+    sys.excepthook = _shown_in_words(window)
     if error:
-        window.show_message("Could not open the file", f"{error}\n\nShowing a sample design instead.")
+        window.show_message("Could not open the file", f"{error}\n\nStarting with a new design instead.")
     window.offer_recovery()
     window.show_first_run_notice()
     return app.exec()

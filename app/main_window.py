@@ -16,7 +16,7 @@ from importlib import resources
 from pathlib import Path
 from typing import Callable
 
-from PySide6.QtCore import QSettings, Qt, QTimer
+from PySide6.QtCore import QSettings, Qt
 from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QIcon, QKeySequence
 from PySide6.QtWidgets import (
     QDockWidget,
@@ -29,7 +29,8 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from hydro import DesignFileError, HullwrightError, load_design, save_design
+from hydro import HullwrightError, load_design
+from hydro.outputs import write_via_temp
 
 from app import style
 from app.document import HullDocument, starter_design
@@ -43,12 +44,12 @@ from app.profile_view import ProfileView
 from app.results_panel import ResultsPanel
 from app.safety_dialog import SafetyDialog
 from app.section_view import SectionView
-from app.settings import add_recent_file, recent_files, recovery_path
+from app.recovery import Autosave, orphans
+from app.settings import add_recent_file, recent_files, recovery_folder
 from app.view_options import ViewOptions
 
 __all__ = ["MainWindow", "sample_paths", "icon"]
 
-AUTOSAVE_MS = 30_000
 FILE_FILTER = "Hullwright designs (*.json);;All files (*)"
 
 Button = QMessageBox.StandardButton
@@ -105,7 +106,6 @@ class MainWindow(QMainWindow):
         )
         self.ask: Ask = _ask_with_dialog(self)
         self.message_box: QMessageBox | None = None
-        self._autosaved = None
         self.setWindowIcon(icon("hullwright"))
 
         self.plan_view = PlanView(document, self.options)
@@ -157,10 +157,7 @@ class MainWindow(QMainWindow):
         self.options.changed.connect(self._on_options_changed)
         self._update_title()
 
-        self.autosave_timer = QTimer(self)
-        self.autosave_timer.setInterval(AUTOSAVE_MS)
-        self.autosave_timer.timeout.connect(self.autosave)
-        self.autosave_timer.start()
+        self.recovery = Autosave(document, recovery_folder(settings), self)
 
         self.resize(1440, 900)
         geometry = settings.value("window/geometry")
@@ -359,8 +356,8 @@ class MainWindow(QMainWindow):
             return False
         try:
             self.document.open(path)
-        except DesignFileError as e:
-            self.show_message("Could not open the file", f"{e}\n\nThe design on screen is unchanged.")
+        except Exception as e:  # the boundary: any failure is shown, the design kept
+            self.show_message("Could not open the file", f"{_words(e)}\n\nThe design on screen is unchanged.")
             return False
         path = Path(path).resolve()
         add_recent_file(self.settings, str(path))
@@ -375,8 +372,8 @@ class MainWindow(QMainWindow):
             return False
         try:
             design = load_design(path)
-        except DesignFileError as e:
-            self.show_message("Could not open the sample", str(e))
+        except Exception as e:  # the boundary
+            self.show_message("Could not open the sample", _words(e))
             return False
         self.document.replace_design(design, None)
         self.fit_all()
@@ -412,12 +409,12 @@ class MainWindow(QMainWindow):
         """Save atomically to ``path``; on failure say why and keep everything as it was."""
         try:
             saved = self.document.save(path)
-        except OSError as e:
-            self.show_message("Could not save", f"{path}: {e.strerror or e}\n\nNothing was overwritten.")
+        except Exception as e:  # the boundary: a refused path, a full disk, anything
+            self.show_message("Could not save", f"{path}: {_words(e)}\n\nNothing was overwritten.")
             return False
         add_recent_file(self.settings, str(saved.resolve()))
         self.settings.setValue("last_folder", str(saved.resolve().parent))
-        self._clear_recovery()
+        self.recovery.discard()
         self.statusBar().showMessage(f"Saved {saved.name}", 5000)
         return True
 
@@ -442,60 +439,61 @@ class MainWindow(QMainWindow):
         if path.suffix.lower() not in (".png", ".pdf"):
             path = path.with_suffix(".png")
         source = self.document.path.name if self.document.path else "not saved"
+        design, units = self.document.committed, self.options.units.name
         try:
-            plate.render_plate_file(
-                self.document.committed, path, paper=paper, dpi=dpi, units=self.options.units.name, source=source
+            write_via_temp(
+                path,
+                lambda tmp: plate.render_plate_file(
+                    design, tmp, paper=paper, dpi=dpi, units=units, source=source
+                ),
+                [self.document.path] if self.document.path else [],
             )
-        except (HullwrightError, OSError) as e:
-            self.show_message("Could not write the plate", str(e))
+        except Exception as e:  # the boundary: a refused path, the engine, the disk
+            self.show_message("Could not write the plate", _words(e))
             return
         self.statusBar().showMessage(f"Plate written to {path}", 8000)
 
     # ------------------------------------------------------------ recovery
 
     def autosave(self) -> None:
-        """Write unsaved work to the recovery file (only when something changed)."""
-        design = self.document.committed
-        if not self.document.is_modified or design is self._autosaved:
-            return
-        try:
-            save_design(design, recovery_path(self.settings))
-        except OSError as e:
-            self.statusBar().showMessage(f"Autosave failed: {e.strerror or e}", 8000)
-            return
-        self._autosaved = design
-        self.settings.setValue("recovery/source", str(self.document.path or ""))
-
-    def _clear_recovery(self) -> None:
-        recovery_path(self.settings).unlink(missing_ok=True)
-        self.settings.remove("recovery/source")
-        self._autosaved = None
+        """Write unsaved work to this window's recovery file now (normally the
+        :class:`~app.recovery.Autosave` timer does it about 1.5 s after an edit)."""
+        if not self.recovery.write_now():
+            self.statusBar().showMessage(f"Autosave failed: {self.recovery.error}", 8000)
 
     def offer_recovery(self) -> bool:
-        """After a crash: offer the autosaved design; True if it was recovered."""
-        path = recovery_path(self.settings)
-        if not path.exists():
+        """List the work of windows that did not close normally and offer the newest.
+
+        Yes opens the newest here (as unsaved work); No deletes them all; Cancel keeps
+        them for next time.  True if a design was recovered.
+        """
+        found = orphans(self.recovery.folder)
+        if not found:
             return False
-        source = str(self.settings.value("recovery/source", ""))
         answer = self.ask(
             "Recover unsaved work?",
-            "Hullwright did not close normally last time. Open the design it saved for you"
-            + (f" (from {Path(source).name})" if source else "")
-            + "?\n\nNo deletes the autosaved copy.",
-            Button.Yes | Button.No,
+            "Hullwright did not close normally and autosaved this unsaved work:\n\n"
+            + "\n".join(f"• {w.label()}" for w in found)
+            + "\n\nYes opens the newest here (any others are offered again next time); "
+            "No deletes them; Cancel keeps them for next time.",
+            Button.Yes | Button.No | Button.Cancel,
             Button.Yes,
         )
+        if answer == Button.No:
+            for work in found:
+                work.discard()
+            return False
         if answer != Button.Yes:
-            self._clear_recovery()
             return False
-        try:
-            design = load_design(path)
-        except DesignFileError as e:
-            self.show_message("Could not recover", f"The autosaved copy is damaged: {e}")
-            self._clear_recovery()
+        work = found[0]
+        if work.design is None:
+            self.show_message("Could not recover", f"The autosaved copy is damaged: {work.problem}")
+            work.discard()
             return False
-        self.document.replace_design(design, Path(source) if source else None)
+        self.document.replace_design(work.design, Path(work.source) if work.source else None)
         self.document.mark_unsaved()
+        if self.recovery.write_now():  # this window's own copy first, then the orphan goes
+            work.discard()
         self.fit_all()
         return True
 
@@ -532,10 +530,20 @@ class MainWindow(QMainWindow):
             return
         self.settings.setValue("window/geometry", self.saveGeometry())
         self.settings.setValue("window/state", self.saveState())
-        self._clear_recovery()
-        self.autosave_timer.stop()
+        self.recovery.close()
         self.checks.shutdown()
         event.accept()
+
+
+def _words(error: BaseException) -> str:
+    """An exception in words: our own messages as they are, anything else with its kind."""
+    if isinstance(error, HullwrightError):
+        return str(error)
+    if isinstance(error, OSError) and error.strerror:
+        return error.strerror
+    if isinstance(error, MemoryError):
+        return "not enough memory for this design"
+    return f"unexpected problem ({type(error).__name__}: {error})"
 
 
 def _flag(value: object) -> bool:

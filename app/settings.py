@@ -1,7 +1,7 @@
-"""Where the app remembers things: QSettings, the recovery file.
+"""Where the app remembers things: QSettings, the recovery folder.
 
 Set the environment variable ``HULLWRIGHT_SETTINGS`` to an INI file path to keep the
-settings (and the recovery file beside them) somewhere else; the tests do this so they
+settings (and the recovery folder beside them) somewhere else; the tests do this so they
 never touch a user's real settings.
 """
 
@@ -12,7 +12,7 @@ from pathlib import Path
 
 from PySide6.QtCore import QSettings
 
-__all__ = ["SETTINGS_ENV", "open_settings", "recovery_path", "recent_files", "add_recent_file"]
+__all__ = ["SETTINGS_ENV", "open_settings", "recovery_folder", "recent_files", "add_recent_file"]
 
 SETTINGS_ENV = "HULLWRIGHT_SETTINGS"
 MAX_RECENT = 8
@@ -26,9 +26,9 @@ def open_settings() -> QSettings:
     return QSettings(QSettings.Format.IniFormat, QSettings.Scope.UserScope, "Hullwright", "Hullwright")
 
 
-def recovery_path(settings: QSettings) -> Path:
-    """The autosave file used to recover unsaved work after a crash."""
-    return Path(settings.fileName()).with_name("hullwright-recovery.json")
+def recovery_folder(settings: QSettings) -> Path:
+    """The folder of the windows' recovery files (beside the settings file)."""
+    return Path(settings.fileName()).with_name("hullwright-recovery")
 
 
 def recent_files(settings: QSettings) -> list[str]:

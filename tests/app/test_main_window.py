@@ -13,7 +13,7 @@ from hydro import load_design
 from app.document import HullDocument
 from app.main_window import MainWindow, sample_paths
 from app.safety_dialog import SafetyDialog
-from app.settings import open_settings, recent_files, recovery_path
+from app.settings import open_settings, recent_files
 from tests.app.helpers import sample
 
 Button = QMessageBox.StandardButton
@@ -90,26 +90,53 @@ def test_autosave_and_recovery_after_a_crash(qtbot):
     window = _window(qtbot)
     _widen(window, 0.07)
     window.autosave()
-    recovery = recovery_path(window.settings)
+    recovery = window.recovery.path
     assert recovery.exists()
     edited = window.document.committed
-    # a crash: the window is never closed, a new one starts
+    # a live window's file is not an orphan
+    assert not _window(qtbot, answer=Button.Yes).offer_recovery()
+    window.recovery.abandon()  # a crash: the lock goes with the process, the file stays
     survivor = _window(qtbot, answer=Button.Yes)
     assert survivor.offer_recovery()
     assert survivor.document.committed == edited
     assert survivor.document.is_modified
+    assert not recovery.exists() and survivor.recovery.path.exists()
     survivor.ask = lambda *args: Button.Discard
     assert survivor.close()
-    assert not recovery.exists()
+    assert not survivor.recovery.path.exists()
 
 
 def test_declining_recovery_deletes_the_copy(qtbot):
     window = _window(qtbot)
     _widen(window)
     window.autosave()
+    window.recovery.abandon()
     other = _window(qtbot, answer=Button.No)
     assert not other.offer_recovery()
-    assert not recovery_path(other.settings).exists()
+    assert not window.recovery.path.exists()
+
+
+def test_each_window_has_its_own_recovery_file(qtbot):
+    """Closing the second window leaves the first one's autosave alone."""
+    first, second = _window(qtbot), _window(qtbot)
+    _widen(first, 0.03)
+    _widen(second, 0.06)
+    first.autosave()
+    second.autosave()
+    assert first.recovery.path != second.recovery.path
+    assert first.recovery.path.exists() and second.recovery.path.exists()
+    assert second.close()
+    assert first.recovery.path.exists() and not second.recovery.path.exists()
+    assert not _window(qtbot).offer_recovery()  # first is alive: nothing to recover
+
+
+def test_autosave_follows_an_edit_within_two_seconds_and_goes_on_save(qtbot, tmp_path):
+    window = _window(qtbot)
+    assert window.recovery.timer.interval() <= 2000 and window.recovery.timer.isSingleShot()
+    _widen(window)
+    qtbot.waitUntil(window.recovery.path.exists, timeout=3000)
+    assert window.save_to(tmp_path / "punt.json")
+    assert not window.recovery.path.exists()
 
 
 def test_first_run_notice_once_and_never_blocking(qtbot):
