@@ -25,7 +25,7 @@ __all__ = ["BODY_HALF_WIDTH_M", "MIN_SHIFTED_FREEBOARD_M", "HeelCheck", "boardin
 
 FloatArray = NDArray[np.float64]
 
-#: Low-side freeboard to keep with the crew shifted: MCA MGN 280 §11.4 asks 75 mm to a
+#: Low-side freeboard to keep with the crew shifted: MCA MGN 280 section 11.4 asks 75 mm to a
 #: watertight deck in its heeling test; used here for open boats (common practice).
 MIN_SHIFTED_FREEBOARD_M = 0.075
 #: A seated person's CG stays this far inboard of the hull side (common practice, no
@@ -189,7 +189,7 @@ def crew_shift(
     members : indices into ``design.loads.crew`` (default: everyone)
     distance : how far each moves sideways (m).  If None, each person moves to the
         hull side at seat height (less half a body width, BODY_HALF_WIDTH_M): the
-        offset-load test of ISO 12217-3 / MCA MGN 280 §11.4
+        offset-load test of ISO 12217-3 / MCA MGN 280 section 11.4
     to_gunwale : instead, each sits on the gunwale, which also raises them to the sheer
     analysis : the design's analysis, if already computed
     """

@@ -131,7 +131,8 @@ def inclining_test(
     The displacement comes from the weighed mass (``displacement``, kg, with the boat
     level) or from freeboards measured at the aft and forward ends.  With the
     correction, each reading obeys  w d = Delta tan(theta) (GM + BM tan^2(theta) / 2),
-    exact for a wall-sided hull (Barrass & Derrett; REFERENCES §2).
+    exact for a wall-sided hull (Barrass & Derrett, "The inclining experiment"; Tupper,
+    *Introduction to Naval Architecture* ch. 4, wall-sided formula).
     """
     if (displacement is None) == (freeboards is None):
         raise LoadError("give either the weighed mass or the two measured freeboards")

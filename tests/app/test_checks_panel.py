@@ -51,7 +51,10 @@ def test_crew_shift_shown_is_the_engines(panel):
 
 
 def test_capsize_reads_in_words(panel):
-    _, widget, _ = panel("heron-punt")
+    """The punt's crew shift finds no equilibrium; the panel says so in words.  (Whether
+    a load capsizes is tested on boxes against shapely in tests/hydro/test_checks.py.)"""
+    doc, widget, _ = panel("heron-punt")
+    assert heel_checks.crew_shift(doc.committed).static_heel_deg is None
     assert widget.results.shift.verdict == "capsizes"
     assert "CAPSIZES" in widget.shift_verdict.text()
 
@@ -110,29 +113,30 @@ def _type_readings(widget, rows):
             widget.readings.setItem(r, c, QTableWidgetItem("" if v is None else str(v)))
 
 
-def test_inclining_recovers_a_known_gm(panel):
-    """Readings made from the design's own GM with the wall-sided relation (Barrass &
-    Derrett; REFERENCES §2) give back that GM within the hull's departure from
-    wall-sided over 1-2 degrees."""
+def test_inclining_readings_typed_in_reach_the_engine(panel):
+    """Readings typed into the table (in display units) and the weighed mass give the
+    engine's inclining result, and applying it replaces the weights by one item at the
+    measured KG.  (The inclining arithmetic itself is tested against closed forms in
+    tests/hydro/test_checks.py.)"""
+    from hydro.incline import InclineReading, inclining_test
+
     doc, widget, options = panel("heron-punt")
-    h = analyse(doc.committed).hydrostatics
     u = options.units
-    rows = []
-    for w, d in ((5.0, 0.3), (5.0, -0.3), (10.0, 0.3), (10.0, -0.3)):
-        t = np.roots([0.5 * h.bm, 0.0, h.gm, -abs(w * d) / h.displacement])
-        tan = min(r.real for r in t if abs(r.imag) < 1e-12 and r.real > 0) * math.copysign(1, d)
-        rows.append((w, u.to_length(d), math.degrees(math.atan(tan)), None, None))
-    _type_readings(widget, rows)
+    sheet = ((5.0, 0.3, 1.1), (5.0, -0.3, -1.15), (10.0, 0.3, 2.2), (10.0, -0.3, -2.25))
+    _type_readings(widget, [(w, u.to_length(d), heel, None, None) for w, d, heel in sheet])
     widget.weighed.setChecked(True)
-    widget.weighed_box.setValue(u.to_mass(h.displacement))
+    widget.weighed_box.setValue(u.to_mass(110.0))
     widget.compute_incline()
+    expected = inclining_test(doc.committed, [InclineReading(w, d, heel_deg=h) for w, d, h in sheet],
+                              displacement=110.0)
     assert widget.incline is not None
-    assert widget.incline.gm == pytest.approx(h.gm, rel=1e-3)
-    assert widget.incline.kg == pytest.approx(h.kg, abs=1e-3)
+    assert widget.incline.gm == pytest.approx(expected.gm, rel=1e-9)
+    assert widget.incline.kg == pytest.approx(expected.kg, rel=1e-9)
     assert widget.incline_apply.isEnabled()
     widget.incline_apply.click()
     items = doc.committed.loads.items
     assert len(items) == 1 and items[0].z == pytest.approx(widget.incline.kg + doc.committed.stations().keel_z)
+    assert items[0].mass == pytest.approx(110.0)
     assert doc.committed.loads.materials == ()
 
 
