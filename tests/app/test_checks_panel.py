@@ -1,8 +1,6 @@
 """The builder's checks panel: shows the hydro checks' own results, applies them as undo
 steps, and handles the inclining test's readings (bad ones get a message)."""
 
-import math
-
 import numpy as np
 import pytest
 from PySide6.QtWidgets import QTableWidgetItem
