@@ -50,14 +50,15 @@ def beam_for_gm(design: Design, target: float = TARGET_GM_M, tolerance: float = 
     Materials follow the new surface, crew stay where they sit.  Solved by bisection
     with secant steps on the factor.
     """
-    if not isinstance(design.hull, HullSketch):
+    sketch = design.hull
+    if not isinstance(sketch, HullSketch):
         raise LoadError("the beam aid works on a sketched hull, not on a fixed table of offsets")
     if not (math.isfinite(target) and -1 < target < 5):
         raise LoadError("the target GM must be between -1 and 5 m")
 
     def gm_at(k: float) -> float | None:
         try:
-            r = _upright_gm(replace(design, hull=scale_breadth(design.hull, k)))
+            r = _upright_gm(replace(design, hull=scale_breadth(sketch, k)))
         except HullwrightError:
             return None
         return None if r is None else r[0]

@@ -54,8 +54,9 @@ def _end_slope(h0: float, h1: float, m0: float, m1: float) -> float:
     return float(d)
 
 
-def interpolate(t: ArrayLike, v: ArrayLike, at: ArrayLike, smooth: bool) -> FloatArray:
-    """Evaluate the curve through knots (t, v) at ``at``; linear or monotone cubic.
+def interpolate(knots: ArrayLike, values: ArrayLike, where: ArrayLike, smooth: bool) -> FloatArray:
+    """Evaluate the curve through ``knots`` (with ``values``) at ``where``; linear or
+    monotone cubic.
 
     Outside the knot range the end values are held.
 
@@ -64,9 +65,9 @@ def interpolate(t: ArrayLike, v: ArrayLike, at: ArrayLike, smooth: bool) -> Floa
     >>> interpolate([0.0, 1.0, 2.0], [0.0, 1.0, 1.0], [0.5, 1.5], smooth=False)
     array([0.5, 1. ])
     """
-    t = np.asarray(t, dtype=float)
-    v = np.asarray(v, dtype=float)
-    at = np.clip(np.asarray(at, dtype=float), t[0], t[-1])
+    t = np.asarray(knots, dtype=float)
+    v = np.asarray(values, dtype=float)
+    at = np.clip(np.asarray(where, dtype=float), t[0], t[-1])
     if not smooth or t.size < 3:
         return np.interp(at, t, v)
     d = pchip_slopes(t, v)

@@ -157,9 +157,10 @@ def inclining_test(
         stations, table, rho = check_context(design)
         probe = Loads(items=(MassItem("as weighed", displacement, 0.5 * (table.x[0] + table.x[-1]), 0.0, table.keel_z),))
         weights = weight_build_up(probe, stations, rho)
-        hs = upright(table, weights, rho, free_trim=True)
-        if hs is None:
+        floating = upright(table, weights, rho, free_trim=True)
+        if floating is None:
             raise LoadError("the hull cannot float that mass")
+        hs = floating
     delta = hs.displacement
     bm = hs.bm if wall_sided_correction else 0.0
     target = moments - 0.5 * delta * bm * tans**3

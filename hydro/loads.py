@@ -394,17 +394,17 @@ def weight_build_up(
         level = stations.keel_z + loads.bottom_thickness + loads.bilge_water_depth
         table = build_section_table(stations)
         frame = heel_frame(table, np.zeros(1))
-        c = cut(table, frame, np.full((1, table.x.size), level))
-        vol = float(c.area[0] @ table.weights)
+        wet = cut(table, frame, np.full((1, table.x.size), level))
+        vol = float(wet.area[0] @ table.weights)
         if vol > 0:
             lines.append(
                 WeightLine(
                     "bilge water",
                     "water",
                     rho * vol,
-                    float(c.area[0] @ table.weights_x / vol),
-                    float(c.q_xi[0] @ table.weights / vol),
-                    float(c.q_eta[0] @ table.weights / vol),
+                    float(wet.area[0] @ table.weights_x / vol),
+                    float(wet.q_xi[0] @ table.weights / vol),
+                    float(wet.q_eta[0] @ table.weights / vol),
                 )
             )
             own, pieces = _free_surface(stations, level)

@@ -127,7 +127,7 @@ def _fsync(path: Path) -> None:
 
 def write_via_temp(
     path: str | os.PathLike[str],
-    write: Callable[[Path], None],
+    write: Callable[[Path], object],
     inputs: Iterable[str | os.PathLike[str]] = (),
 ) -> Path:
     """Call ``write(temp)`` to fill a temporary file beside the target, then put it in

@@ -268,7 +268,8 @@ def cut(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True)
     tot = frame.totals
 
     def gather(values: FloatArray) -> FloatArray:
-        return np.bincount(cell, weights=values, minlength=size).reshape(n_angles, n_st)
+        summed: FloatArray = np.bincount(cell, weights=values, minlength=size)  # type: ignore[assignment]
+        return summed.reshape(n_angles, n_st)
 
     area = gather(crossp / 2 + pre[:, 0] + hx * sign / 2) + first_below * tot[0]
     q_eta = gather(

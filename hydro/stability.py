@@ -118,7 +118,7 @@ class StabilityCurve:
     righting_moment: FloatArray
     trim_deg: FloatArray
     low_freeboard: FloatArray
-    converged: FloatArray
+    converged: NDArray[np.bool_]
     gunwale_immersion_deg: float | None
     max_gz: float
     max_gz_deg: float
@@ -380,6 +380,7 @@ def righting_curve(
     loll = up[0] if base.gm < 0 and up else None
     start = loll if loll is not None else heel_deg[0]
     avs_list = [a for a in down if a > start + 1e-9]
+    avs: float | None
     if base.gm < 0 and loll is None:
         avs = float(heel_deg[0])
     else:

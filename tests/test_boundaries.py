@@ -37,3 +37,12 @@ def test_import_contract_is_kept():
     )
     assert out.returncode == 0, out.stdout + out.stderr
     assert "1 kept, 0 broken" in out.stdout
+
+
+def test_engine_type_checks():
+    """mypy over hydro with the settings in pyproject.toml (its cache in .mypy_cache)."""
+    out = subprocess.run(
+        [sys.executable, "-m", "mypy", "--no-error-summary", "hydro"],
+        cwd=ROOT, capture_output=True, text=True,
+    )
+    assert out.returncode == 0, out.stdout + out.stderr
