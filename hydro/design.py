@@ -160,7 +160,7 @@ def analyse_stations(
     >>> from hydro.loads import MassItem
     >>> load = Loads(items=(MassItem("load", 400.0, 2.0, 0.0, 0.2),))
     >>> a = analyse_stations(box(4.0, 1.0, 0.5), load, 1000.0)
-    >>> round(float(a.hydrostatics.draft_mid), 6), round(a.hydrostatics.bm, 6), a.status
+    >>> round(float(a.hydrostatics.draft_mid), 6), round(a.hydrostatics.bm, 6), str(a.status)
     (0.1, 0.833333, 'ok')
     """
     angles = settings.heel_angles()
@@ -170,7 +170,7 @@ def analyse_stations(
     table = table or build_section_table(stations)
     panels = shell_panels(stations) if loads.materials else None
     weights = weight_build_up(loads, stations, rho, panels)
-    return analyse_table(table, weights, rho, angles, settings.free_trim)
+    return analyse_table(table, weights, rho, angles, settings.free_trim, settings.open_boat)
 
 
 def analyse(design: Design) -> Analysis:

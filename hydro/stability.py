@@ -12,6 +12,8 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from enum import Enum
+from typing import Callable
 
 import numpy as np
 from numpy.typing import NDArray
@@ -19,12 +21,17 @@ from numpy.typing import NDArray
 from hydro.equilibrium import Equilibrium, level_waterline, solve_equilibrium
 from hydro.loads import WeightSummary
 from hydro.sections import HeelFrame, SectionTable, heel_frame
+from hydro.wording import status_sentence
 
 __all__ = [
     "G_STANDARD",
     "Hydrostatics",
     "StabilityCurve",
     "Analysis",
+    "Status",
+    "both_sides",
+    "curve_points",
+    "is_asymmetric",
     "upright",
     "righting_curve",
     "analyse_table",
@@ -37,6 +44,8 @@ FloatArray = NDArray[np.float64]
 
 #: Standard gravity (m/s^2), 3rd CGPM 1901.
 G_STANDARD = 9.80665
+#: G nearer the centreline than this (m) counts as on it.
+ASYMMETRY_M = 1e-6
 
 
 @dataclass(frozen=True, eq=False)
@@ -96,20 +105,30 @@ class StabilityCurve:
 
     Attributes
     ----------
-    heel_deg : (A,) heel angles
-    gz : (A,) righting arm (m), corrected for free surface; NaN where unsolved
-    wall_sided : (A,) wall-sided estimate sin(phi)(GM + BM tan^2(phi)/2) (Tupper ch. 4),
-        NaN at and beyond 90 degrees
+    heel_deg : (A,) heel angles, ascending; negative = port down.  Both sides when G
+        is off the centreline, else 0 to the largest heel
+    gz : (A,) righting arm (m), corrected for free surface; NaN where unsolved; with an
+        off-centre G, GZ(0) = -TCG
+    wall_sided : (A,) wall-sided estimate sin(phi)(GM + BM tan^2(phi)/2) - TCG cos(phi)
+        (Tupper ch. 4), NaN at and beyond 90 degrees
     righting_moment : (A,) Delta g GZ (N m)
     trim_deg : (A,) free trim at each heel
     low_freeboard : (A,) least height of the low-side gunwale above the water (m)
     converged : (A,) bool
-    gunwale_immersion_deg : first heel at which the gunwale meets the water, or None
-    max_gz, max_gz_deg : largest GZ and where (over the whole curve)
-    avs_deg : angle of vanishing stability, or None if GZ stays positive to the end
+    The features below are on the listing side (``side``), angles signed like heel:
+
+    gunwale_immersion_deg : first heel at which the low gunwale meets the water, or None
+    max_gz, max_gz_deg : largest righting arm back towards upright beyond the list, and
+        its heel (refined on the exact solver)
+    avs_deg : angle of vanishing stability beyond the list, or None if the righting arm
+        stays positive to the end (refined)
     loll_deg : heel where a negative-GM boat comes to rest, or None
-    area_30, area_40, area_to_gunwale : area under GZ (m rad) to 30, 40 degrees and to
-        gunwale immersion (None where the curve does not reach that far)
+    area_30, area_40, area_to_gunwale : area under the righting arm (m rad) from upright
+        to 30, 40 degrees and to gunwale immersion towards the listing side (None where
+        the curve does not reach that far)
+    list_deg : static heel of the boat as loaded (GZ = 0, stable), + starboard; None
+        when there is none on the listing side: the boat capsizes (refined)
+    side : +1 starboard, -1 port: the side G pulls the boat towards
     """
 
     heel_deg: FloatArray
@@ -127,6 +146,52 @@ class StabilityCurve:
     area_30: float | None
     area_40: float | None
     area_to_gunwale: float | None
+    list_deg: float | None = 0.0
+    side: int = 1
+
+    @property
+    def capsizes(self) -> bool:
+        """No equilibrium on the side G pulls the boat towards: it rolls over."""
+        return self.list_deg is None
+
+    @property
+    def range_deg(self) -> float:
+        """Span of positive righting arm from the list to the vanishing angle (degrees);
+        to the last angle computed when the arm stays positive (see ``range_open``)."""
+        if self.list_deg is None:
+            return 0.0
+        end = self.avs_deg if self.avs_deg is not None else self.side * self.last_deg
+        return max(abs(end - self.list_deg), 0.0)
+
+    @property
+    def range_open(self) -> bool:
+        """The righting arm is still positive at the last angle computed."""
+        return self.list_deg is not None and self.avs_deg is None
+
+    @property
+    def last_deg(self) -> float:
+        """The largest heel computed towards the listing side (degrees, unsigned)."""
+        return float(np.max(self.side * self.heel_deg))
+
+
+class Status(str, Enum):
+    """How the loaded boat floats, decided once here for every view.
+
+    ok: floats, with G where it is, at a stable heel (upright or listed) with the gunwale
+    clear; floods: the gunwale is under water upright, or (an open boat) at the list;
+    unstable: upright GM <= 0, the boat lolls over to an angle; capsizes: no heel towards
+    the side G pulls the boat brings the righting arm back to zero; sinks: no floating
+    position at all.
+    """
+
+    OK = "ok"
+    FLOODS = "floods"
+    UNSTABLE = "unstable"
+    CAPSIZES = "capsizes"
+    SINKS = "sinks"
+
+    def __str__(self) -> str:
+        return self.value
 
 
 @dataclass(frozen=True, eq=False)
@@ -135,19 +200,29 @@ class Analysis:
 
     Attributes
     ----------
-    status : "ok"; "floods" (the gunwale is under water upright: an open boat swamps);
-        "unstable" (GM <= 0: the boat lolls or capsizes); or "sinks" (even the whole
-        closed hull cannot carry the load)
-    message : one line for the user
+    status : see :class:`Status`
     weights : the weight build-up
     hydrostatics, curve : None when status is "sinks"
+    flood_limit_kg : when the gunwale is under upright, the mass that just floods it
+    capacity_kg : the mass the whole closed hull displaces (for "sinks")
     """
 
-    status: str
-    message: str
+    status: Status
     weights: WeightSummary
     hydrostatics: Hydrostatics | None
     curve: StabilityCurve | None
+    flood_limit_kg: float | None = None
+    capacity_kg: float | None = None
+
+    @property
+    def list_deg(self) -> float | None:
+        """Static heel as loaded, + starboard; None when the boat capsizes or sinks."""
+        return None if self.curve is None else self.curve.list_deg
+
+    @property
+    def message(self) -> str:
+        """One sentence for the user (metric); other units through :mod:`hydro.wording`."""
+        return status_sentence(self)
 
 
 def _drafts(table: SectionTable, h: float, tau: float) -> tuple[float, float, float]:
@@ -318,24 +393,36 @@ def _loose_water_shift(
     return w.mass / weights.mass * (inside.xi_b - fixed)
 
 
-def righting_curve(
+def _mirrored(weights: WeightSummary) -> WeightSummary:
+    """The same weights reflected in the centreline (y -> -y)."""
+    lines = tuple(replace(line, y=-line.y) for line in weights.lines)
+    return replace(weights, tcg=-weights.tcg, lines=lines)
+
+
+def is_asymmetric(weights: WeightSummary) -> bool:
+    """Whether G lies off the centreline (the hull itself is always symmetric)."""
+    return abs(weights.tcg) > ASYMMETRY_M
+
+
+@dataclass(frozen=True, eq=False)
+class _Points:
+    """Raw righting-arm values at some heel angles (no features)."""
+
+    gz: FloatArray
+    trim_deg: FloatArray
+    low_freeboard: FloatArray
+    converged: FloatArray
+
+
+def _starboard_points(
     table: SectionTable,
     weights: WeightSummary,
     rho: float,
     base: Hydrostatics,
     heel_deg: FloatArray,
-    free_trim: bool = True,
-) -> StabilityCurve:
-    """GZ at every angle in ``heel_deg`` from exact heeled equilibrium.
-
-    All angles are solved together by Newton's method, starting from the upright
-    waterline turned with the boat.  Loose (bilge) water is a weight that moves: at each
-    heel its surface is found inside the hull, parallel to the sea's, and the shift of its
-    centre reduces GZ (thin-shell approximation; its fore-and-aft shift is ignored).  At
-    small angles this is the free-surface correction FSC sin(phi); it also holds when the
-    water reaches the floor's edge, where the FSC formula does not.
-    """
-    heel_deg = np.asarray(heel_deg, dtype=float)
+    free_trim: bool,
+) -> _Points:
+    """GZ, trim and low-side freeboard at heels >= 0 (starboard down)."""
     phi = np.radians(heel_deg)
     frame = heel_frame(table, phi)
     c, s = frame.cos, frame.sin
@@ -362,45 +449,227 @@ def righting_curve(
         xi_b, tau, h, conv = eq.xi_b, eq.tau, eq.h, eq.converged
     gz = xi_b - xi_g - _loose_water_shift(table, frame, weights, rho, tau)
     gz = np.where(conv, gz, np.nan)
-    with np.errstate(invalid="ignore", divide="ignore"):
-        tan = np.tan(phi)
-        wall = np.where(np.abs(heel_deg) < 89.999, s * (base.gm + 0.5 * base.bm * tan**2), np.nan)
     # low (starboard) gunwale height above the heeled waterline at every station
     eta_gw = c[:, None] * table.gunwale_z[None] - s[:, None] * table.gunwale_y[None]
     low_fb = (eta_gw - (h[:, None] + tau[:, None] * table.x[None])).min(axis=1)
     low_fb = np.where(conv, low_fb, np.nan)
-    under = _crossings(heel_deg, low_fb, rising=False)
+    return _Points(gz, np.degrees(np.arctan(tau)), low_fb, conv)
+
+
+def curve_points(
+    table: SectionTable,
+    weights: WeightSummary,
+    rho: float,
+    base: Hydrostatics,
+    heel_deg: FloatArray,
+    free_trim: bool = True,
+) -> _Points:
+    """GZ, trim and low-side freeboard at signed heels (negative = port down).
+
+    Port heels are solved as the mirror image: the boat with G reflected in the
+    centreline heeled to starboard, GZ changing sign.
+    """
+    heel_deg = np.asarray(heel_deg, dtype=float)
+    port = heel_deg < 0
+    if not port.any():
+        return _starboard_points(table, weights, rho, base, heel_deg, free_trim)
+    gz = np.full(heel_deg.size, np.nan)
+    trim = np.full(heel_deg.size, np.nan)
+    low = np.full(heel_deg.size, np.nan)
+    conv = np.zeros(heel_deg.size, dtype=bool)
+    for mask, w, sign in ((~port, weights, 1.0), (port, _mirrored(weights), -1.0)):
+        if mask.any():
+            p = _starboard_points(table, w, rho, base, np.abs(heel_deg[mask]), free_trim)
+            gz[mask], trim[mask], low[mask], conv[mask] = sign * p.gz, p.trim_deg, p.low_freeboard, p.converged
+    return _Points(gz, trim, low, conv)
+
+
+def both_sides(heel_deg: FloatArray) -> FloatArray:
+    """Heel angles mirrored to port: -max ... 0 ... max (ascending)."""
+    pos = np.asarray(heel_deg, dtype=float)
+    pos = pos[pos > 0]
+    return np.concatenate([-pos[::-1], [0.0], pos])
+
+
+def _first_crossing(a: FloatArray, f: FloatArray, rising: bool, after: float) -> int | None:
+    """Index i of the first crossing of zero between a[i] and a[i+1] with a[i] >= after."""
+    lo, hi = f[:-1], f[1:]
+    with np.errstate(invalid="ignore"):
+        hit = ((lo < 0) & (hi >= 0)) if rising else ((lo > 0) & (hi <= 0))
+    hit &= a[:-1] >= after - 1e-12
+    idx = np.flatnonzero(hit)
+    return int(idx[0]) if idx.size else None
+
+
+def _refine(
+    evaluate: Callable[[FloatArray], FloatArray],
+    roots: dict[str, tuple[float, float, bool]],
+    peak: tuple[float, float] | None,
+    rounds: int = 3,
+    points: int = 6,
+) -> tuple[dict[str, float], tuple[float, float] | None]:
+    """Refine zero crossings and one local maximum of a function on the exact solver.
+
+    ``roots`` maps a name to a bracket (lo, hi, rising); ``peak`` is a bracket around a
+    local maximum.  Every round evaluates ``points`` interior angles of each bracket in
+    one call (so the solver runs vectorised) and keeps the sub-bracket that holds the
+    crossing or the best value: after 3 rounds a 1-degree crossing bracket is 0.003
+    degrees wide, a maximum is known to 0.05 degrees (GZ to second order).  Returns the crossings (interpolated in the last bracket) and (angle, value)
+    of the maximum.
+    """
+    brackets = {k: [lo, hi, rising] for k, (lo, hi, rising) in roots.items()}
+    ends = {k: [math.nan, math.nan] for k in roots}
+    best: tuple[float, float] | None = None
+    pk = list(peak) if peak is not None else None
+    for _ in range(rounds):
+        grids = {k: np.linspace(b[0], b[1], points + 2) for k, b in brackets.items()}
+        if pk is not None:
+            grids["peak"] = np.linspace(pk[0], pk[1], points + 2)
+        if not grids:
+            break
+        angles = np.concatenate(list(grids.values()))
+        values = evaluate(angles)
+        at = 0
+        for k, g in grids.items():
+            v = values[at : at + g.size]
+            at += g.size
+            if k == "peak":
+                if not np.isfinite(v).any():
+                    pk = None
+                    continue
+                i = int(np.nanargmax(v))
+                best = (float(g[i]), float(v[i]))
+                assert pk is not None
+                pk = [float(g[max(i - 1, 0)]), float(g[min(i + 1, g.size - 1)])]
+                continue
+            rising = bool(brackets[k][2])
+            with np.errstate(invalid="ignore"):
+                hit = ((v[:-1] < 0) & (v[1:] >= 0)) if rising else ((v[:-1] > 0) & (v[1:] <= 0))
+            idx = np.flatnonzero(hit)
+            if not idx.size:  # unsolved points inside: keep the bracket
+                continue
+            i = int(idx[0])
+            brackets[k][:2] = [float(g[i]), float(g[i + 1])]
+            ends[k] = [float(v[i]), float(v[i + 1])]
+    found: dict[str, float] = {}
+    for k, b in brackets.items():
+        f0, f1 = ends[k]
+        if math.isfinite(f0) and math.isfinite(f1) and f1 != f0:
+            found[k] = b[0] + (b[1] - b[0]) * f0 / (f0 - f1)
+        else:
+            found[k] = 0.5 * (b[0] + b[1])
+    return found, best
+
+
+def righting_curve(
+    table: SectionTable,
+    weights: WeightSummary,
+    rho: float,
+    base: Hydrostatics,
+    heel_deg: FloatArray,
+    free_trim: bool = True,
+) -> StabilityCurve:
+    """GZ at every angle in ``heel_deg`` from exact heeled equilibrium, and its features.
+
+    All angles are solved together by Newton's method, starting from the upright
+    waterline turned with the boat.  Loose (bilge) water is a weight that moves: at each
+    heel its surface is found inside the hull, parallel to the sea's, and the shift of its
+    centre reduces GZ (thin-shell approximation; its fore-and-aft shift is ignored).  At
+    small angles this is the free-surface correction FSC sin(phi); it also holds when the
+    water reaches the floor's edge, where the FSC formula does not.
+
+    Angles may be signed (negative = port down).  The features are taken on the side the
+    boat lists towards, from the list: the list is where GZ comes back to zero rising
+    (a stable equilibrium) going from upright in the direction G pulls it; max GZ, the
+    vanishing angle and the range are measured from there.  The list, the largest
+    righting arm and the vanishing angle are refined on the exact solver (not read off
+    the grid) when the curve has three or more angles.
+    """
+    heel_deg = np.asarray(heel_deg, dtype=float)
+    pts = curve_points(table, weights, rho, base, heel_deg, free_trim)
+    gz, conv = pts.gz, pts.converged
+    phi = np.radians(heel_deg)
+    c, s = np.cos(phi), np.sin(phi)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        tan = np.tan(phi)
+        wall = np.where(
+            np.abs(heel_deg) < 89.999,
+            s * (base.gm + 0.5 * base.bm * tan**2) - weights.tcg * c,
+            np.nan,
+        )
+    # the side G pulls the boat towards; upright symmetric boats count as starboard
+    side = -1 if weights.tcg < -ASYMMETRY_M else 1
+    keep = side * heel_deg >= 0
+    order = np.argsort(side * heel_deg[keep])
+    a = (side * heel_deg[keep])[order]  # angles towards the listing side, ascending
+    g = (side * gz[keep])[order]  # righting arm back towards upright
+    fb = pts.low_freeboard[keep][order]
+    refine = a.size >= 3
+
+    def evaluate(angles: FloatArray) -> FloatArray:
+        return side * curve_points(table, weights, rho, base, side * angles, free_trim).gz
+
+    if not is_asymmetric(weights) and base.gm > 0:
+        list_i: int | None = -1  # upright
+    else:
+        list_i = _first_crossing(a, g, rising=True, after=0.0)
+    roots: dict[str, tuple[float, float, bool]] = {}
+    if list_i is not None and list_i >= 0 and refine:
+        roots["list"] = (float(a[list_i]), float(a[list_i + 1]), True)
+    start = 0.0 if list_i is None or list_i < 0 else float(a[list_i + 1])
+    finite = np.isfinite(g) & (a >= start - 1e-12)
+    peak: tuple[float, float] | None = None
+    i_max = int(np.nanargmax(np.where(finite, g, -np.inf))) if finite.any() else 0
+    if refine and finite.any():
+        peak = (float(a[max(i_max - 1, 0)]), float(a[min(i_max + 1, a.size - 1)]))
+    avs_i = _first_crossing(a, g, rising=False, after=start) if list_i is not None else None
+    if avs_i is not None and refine:
+        roots["avs"] = (float(a[avs_i]), float(a[avs_i + 1]), False)
+    found, best = _refine(evaluate, roots, peak) if refine else ({}, None)
+
+    def crossing(i: int, rising: bool) -> float:
+        return _crossings(a[i : i + 2], g[i : i + 2], rising)[0]
+
+    if list_i is None:
+        list_a: float | None = None
+    elif list_i < 0:
+        list_a = 0.0
+    else:
+        list_a = found.get("list", crossing(list_i, True))
+    if avs_i is None:
+        avs_a = None if list_a is not None else 0.0
+    else:
+        avs_a = found.get("avs", crossing(avs_i, False))
+    max_a, max_g = (float(a[i_max]), float(g[i_max])) if finite.any() else (0.0, math.nan)
+    if best is not None and best[1] >= max_g:
+        max_a, max_g = best
+    under = _crossings(a, fb, rising=False)
     gunwale = under[0] if base.min_freeboard > 0 and under else None
     if base.min_freeboard <= 0:
-        gunwale = float(heel_deg[0])
-    finite = np.isfinite(gz)
-    i_max = int(np.nanargmax(np.where(finite, gz, -np.inf))) if finite.any() else 0
-    up = _crossings(heel_deg, gz, rising=True)
-    down = _crossings(heel_deg, gz, rising=False)
-    loll = up[0] if base.gm < 0 and up else None
-    start = loll if loll is not None else heel_deg[0]
-    avs_list = [a for a in down if a > start + 1e-9]
-    avs: float | None
-    if base.gm < 0 and loll is None:
-        avs = float(heel_deg[0])
-    else:
-        avs = avs_list[0] if avs_list else None
+        gunwale = 0.0
+
+    def signed(v: float | None) -> float | None:
+        return None if v is None else side * v + 0.0
+
+    list_deg = signed(list_a)
     return StabilityCurve(
         heel_deg=heel_deg,
         gz=gz,
         wall_sided=wall,
         righting_moment=weights.mass * G_STANDARD * gz,
-        trim_deg=np.degrees(np.arctan(tau)),
-        low_freeboard=low_fb,
+        trim_deg=pts.trim_deg,
+        low_freeboard=pts.low_freeboard,
         converged=conv,
-        gunwale_immersion_deg=gunwale,
-        max_gz=float(gz[i_max]) if finite.any() else math.nan,
-        max_gz_deg=float(heel_deg[i_max]),
-        avs_deg=avs,
-        loll_deg=loll,
-        area_30=curve_area(heel_deg, gz, 30.0),
-        area_40=curve_area(heel_deg, gz, 40.0),
-        area_to_gunwale=curve_area(heel_deg, gz, gunwale) if gunwale is not None else None,
+        gunwale_immersion_deg=signed(gunwale),
+        max_gz=max_g,
+        max_gz_deg=side * max_a + 0.0,
+        avs_deg=signed(avs_a),
+        loll_deg=list_deg if base.gm <= 0 else None,
+        area_30=curve_area(a, g, 30.0),
+        area_40=curve_area(a, g, 40.0),
+        area_to_gunwale=curve_area(a, g, gunwale) if gunwale is not None else None,
+        list_deg=list_deg,
+        side=side,
     )
 
 
@@ -434,46 +703,29 @@ def analyse_table(
     rho: float,
     heel_deg: FloatArray,
     free_trim: bool = True,
+    open_boat: bool = True,
 ) -> Analysis:
-    """Upright hydrostatics plus the GZ curve, with a plain status message."""
+    """Upright hydrostatics, the GZ curve (both sides when G is off the centreline) and
+    the one status of the loaded boat (see :class:`Status`)."""
+    capacity = float(table.totals[0] @ table.weights) * rho
     base = upright(table, weights, rho, free_trim)
     if base is None:
-        full = float(table.totals[0] @ table.weights) * rho
-        if weights.mass < full:
-            text = (
-                f"Sinks: no floating position with the centre of gravity at x = "
-                f"{weights.lcg:.2f} m; the hull would stand on end and go under."
-            )
-        else:
-            text = (
-                f"Sinks: the load is {weights.mass:.0f} kg but the whole closed hull "
-                f"displaces only {full:.0f} kg."
-            )
-        return Analysis("sinks", text, weights, None, None)
-    curve = righting_curve(table, weights, rho, base, heel_deg, free_trim)
-    if base.min_freeboard <= 0:
+        return Analysis(Status.SINKS, weights, None, None, capacity_kg=capacity)
+    angles = both_sides(heel_deg) if is_asymmetric(weights) else np.asarray(heel_deg, float)
+    curve = righting_curve(table, weights, rho, base, angles, free_trim)
+    if curve.list_deg is None:
+        status = Status.CAPSIZES
+    elif base.min_freeboard <= 0:
         limit = flooding_mass(table, weights, rho)
-        over = f"; it floods at {limit:.0f} kg, {weights.mass - limit:.0f} kg too heavy" if limit else ""
-        return Analysis(
-            "floods",
-            f"Floods: the gunwale is {-base.min_freeboard * 1000:.0f} mm under water at "
-            f"x = {base.min_freeboard_x:.2f} m with {weights.mass:.0f} kg aboard{over}.",
-            weights,
-            base,
-            curve,
-        )
-    if base.gm <= 0:
-        if curve.loll_deg is not None:
-            text = f"lolls over to about {curve.loll_deg:.0f} degrees"
-            if curve.gunwale_immersion_deg is not None and curve.gunwale_immersion_deg <= curve.loll_deg:
-                text += ", past the point where the gunwale goes under"
-        else:
-            text = "finds no upright position and capsizes"
-        return Analysis(
-            "unstable",
-            f"Unstable: GM is {base.gm * 1000:.0f} mm, so the boat {text}.",
-            weights,
-            base,
-            curve,
-        )
-    return Analysis("ok", "Floats upright with the gunwale clear.", weights, base, curve)
+        return Analysis(Status.FLOODS, weights, base, curve, limit, capacity)
+    elif base.gm <= 0:
+        status = Status.UNSTABLE
+    elif (
+        open_boat
+        and curve.gunwale_immersion_deg is not None
+        and abs(curve.gunwale_immersion_deg) <= abs(curve.list_deg)
+    ):
+        status = Status.FLOODS
+    else:
+        status = Status.OK
+    return Analysis(status, weights, base, curve, capacity_kg=capacity)

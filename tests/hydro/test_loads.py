@@ -3,6 +3,8 @@
 import math
 import re
 
+import numpy as np
+
 import pytest
 
 from hydro import CrewMember, LoadError, Loads, MassItem, Material, weight_build_up
@@ -92,15 +94,18 @@ def test_load_too_heavy_is_a_result_not_an_error():
 
     a = status(1200.0)  # load well aft: the stern goes under before the box is full
     assert a.status == "floods"
-    limit = float(re.search(r"floods at (\d+) kg", a.message).group(1))
+    assert f"floods at {a.flood_limit_kg:.1f} kg" in a.message
+    limit = round(a.flood_limit_kg)
     assert status(limit - 1).status == "ok"
     assert status(limit + 1).status == "floods"
     a = analyse_stations(st, Loads(items=(MassItem("m", 2000.0, 1.5, 0.0, 0.2),)), 1000.0)
-    assert a.status == "sinks" and a.hydrostatics is None and "displaces only 1500 kg" in a.message
+    assert a.status == "sinks" and a.hydrostatics is None and "displaces only 1500.0 kg" in a.message
     a = analyse_stations(st, Loads(items=(MassItem("m", 1200.0, 0.2, 0.0, 0.2),)), 1000.0)
     assert a.status == "sinks" and "stand on end" in a.message
     a = analyse_stations(st, Loads(items=(MassItem("m", 300.0, 1.5, 0.0, 0.9),)), 1000.0)
-    assert a.status == "unstable" and a.hydrostatics.gm < 0
+    # G above the deck: GM < 0 and no heel where the righting arm comes back
+    assert a.status == "capsizes" and a.hydrostatics.gm < 0 and a.list_deg is None
+    assert np.nanmax(a.curve.gz[1:]) < 0 and "rolls over" in a.message
 
 
 @pytest.mark.source(f"{ISO_14946}; {IMO_IS}: 75 kg per person")

@@ -1,0 +1,114 @@
+"""Words for the builder: the one unit-aware formatter of verdicts and margins.
+
+The command line, the app and the plate all take their sentences from here, with the
+lengths and masses written by :class:`hydro.units.UnitSystem` (``length_text`` and
+``mass_text``), so a verdict reads the same wherever it is shown.  Nothing here decides
+anything: the verdicts come from :mod:`hydro.stability` and :mod:`hydro.assess`.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import TYPE_CHECKING
+
+from hydro.units import METRIC, UnitSystem
+
+if TYPE_CHECKING:  # pragma: no cover - types only, no import cycle at run time
+    from hydro.stability import Analysis
+
+__all__ = ["angle_text", "list_text", "side_word", "status_headline", "status_sentence"]
+
+#: A list smaller than this (degrees) is called upright.
+UPRIGHT_DEG = 0.05
+
+
+def side_word(heel_deg: float) -> str:
+    """"starboard" for a positive heel, "port" for a negative one."""
+    return "starboard" if heel_deg >= 0 else "port"
+
+
+def angle_text(deg: float | None, digits: int = 0) -> str:
+    """An unsigned angle, ``12°``; a dash for None or NaN."""
+    if deg is None or not math.isfinite(deg):
+        return "—"
+    return f"{abs(deg):.{digits}f}°"
+
+
+def list_text(list_deg: float | None) -> str:
+    """``upright``, ``lists 4° to starboard`` or ``capsizes`` (None)."""
+    if list_deg is None:
+        return "capsizes"
+    if abs(list_deg) < UPRIGHT_DEG:
+        return "upright"
+    digits = 0 if abs(list_deg) >= 2 else 1
+    return f"lists {angle_text(list_deg, digits)} to {side_word(list_deg)}"
+
+
+def status_headline(a: Analysis) -> str:
+    """The status in capitals, with the list: ``OK - LISTS 4° TO STARBOARD``."""
+    word = a.status.value.upper()
+    c = a.curve
+    if c is None or c.list_deg is None or abs(c.list_deg) < UPRIGHT_DEG:
+        return word
+    return f"{word} - {list_text(c.list_deg).upper()}"
+
+
+def status_sentence(a: Analysis, u: UnitSystem = METRIC) -> str:
+    """One sentence on how the boat floats, lengths and masses in ``u``."""
+    from hydro.stability import Status  # run-time import: stability imports this module
+
+    w, h, c = a.weights, a.hydrostatics, a.curve
+    if a.status is Status.SINKS or h is None or c is None:
+        if a.capacity_kg is not None and w.mass >= a.capacity_kg:
+            return (
+                f"Sinks: the load is {u.mass_text(w.mass)} but the whole closed hull "
+                f"displaces only {u.mass_text(a.capacity_kg)}."
+            )
+        return (
+            f"Sinks: no floating position with the centre of gravity "
+            f"{u.length_text(w.lcg)} from the aft end; the hull would stand on end and go under."
+        )
+    if a.status is Status.CAPSIZES:
+        upto = f"up to {angle_text(c.last_deg)}"
+        if abs(w.tcg) < 1e-6:
+            return (
+                f"Capsizes: upright GM is {u.length_text(h.gm)} and the righting arm stays "
+                f"below zero at every heel {upto}: the boat rolls over."
+            )
+        side = side_word(c.side)
+        return (
+            f"Capsizes: the centre of gravity is {u.length_text(abs(w.tcg))} to {side} of "
+            f"the centreline and the righting arm stays below zero at every heel to {side} "
+            f"{upto}: the boat rolls over."
+        )
+    if a.status is Status.FLOODS and h.min_freeboard <= 0:
+        over = ""
+        if a.flood_limit_kg:
+            over = (
+                f"; it floods at {u.mass_text(a.flood_limit_kg)}, "
+                f"{u.mass_text(w.mass - a.flood_limit_kg)} too heavy"
+            )
+        return (
+            f"Floods: the gunwale is {u.length_text(-h.min_freeboard)} under water "
+            f"{u.length_text(h.min_freeboard_x)} from the aft end with "
+            f"{u.mass_text(w.mass)} aboard{over}."
+        )
+    assert c.list_deg is not None
+    if a.status is Status.FLOODS:
+        return (
+            f"Floods: it {list_text(c.list_deg)} and the gunwale goes under at "
+            f"{angle_text(c.gunwale_immersion_deg, 1)}: an open boat fills."
+        )
+    if a.status is Status.UNSTABLE:
+        lolls = f"lolls over to about {angle_text(c.list_deg)}"
+        if abs(w.tcg) > 0:
+            lolls += f" to {side_word(c.list_deg)}"
+        else:
+            lolls += " to either side"
+        gw = c.gunwale_immersion_deg
+        if gw is not None and abs(gw) <= abs(c.list_deg):
+            lolls += ", past the point where the gunwale goes under"
+        return f"Unstable: upright GM is {u.length_text(h.gm)}, so the boat {lolls}."
+    if abs(c.list_deg) < UPRIGHT_DEG:
+        return "Floats upright with the gunwale clear."
+    return f"Floats but {list_text(c.list_deg)}, the gunwale clear."
