@@ -13,6 +13,7 @@ still one line on stderr, with exit code 70.  Only ``plate`` and ``open`` load Q
 from __future__ import annotations
 
 import argparse
+from dataclasses import replace
 import json
 import math
 import os
@@ -25,7 +26,6 @@ import numpy as np
 
 from hydro import (
     AnalysisSettings,
-    HullSketch,
     HullwrightError,
     Loads,
     MassItem,
@@ -37,7 +37,10 @@ from hydro import (
     save_design,
     write_offsets,
 )
-from hydro import aids, heel_checks, incline, whatif
+from hydro import incline
+from hydro.assess import assess
+from hydro.design import Design
+from hydro.heel_checks import HeelCheck
 from hydro import limits
 from hydro.io import read_incline_readings
 from hydro.outputs import check_output, write_via_temp
@@ -46,6 +49,7 @@ from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
 from hydro.units import LengthError, parse_length, system
 from hydro.stability import Analysis
+from hydro.wording import list_text
 
 if TYPE_CHECKING:
     from hydro.build_pack import PackSettings
@@ -142,9 +146,9 @@ def _parser() -> argparse.ArgumentParser:
                        help="shift each by this length (default: to the side at seat height)")
     group.add_argument("--gunwale", action="store_true", help="shift them onto the gunwale")
     ck.add_argument("--boarding-mass", type=_number(1.0, limits.MAX_CREW_KG, "--boarding-mass"),
-                    default=75.0, help="person climbing aboard, kg (default 75)")
+                    default=None, help="person climbing aboard, kg (default: as saved, 75)")
     ck.add_argument("--target-gm", metavar="LENGTH", default=None,
-                    help="target GM for the beam aid (default 0.15 m)")
+                    help="target GM for the beam aid (default: as saved, 0.15 m)")
     ck.add_argument("--json", action="store_true")
     inc = sub.add_parser("incline", help="measured GM and KG from an inclining test of the built boat")
     inc.add_argument("design")
@@ -221,8 +225,6 @@ def _report(args: argparse.Namespace) -> tuple[Analysis, str]:
         raise BadInput("give a design file, or --offsets HULL.csv --mass KG --cg X,Y,Z")
     design = load_design(args.design)
     if args.heel_step is not None or args.heel_max is not None:
-        from dataclasses import replace
-
         design = replace(design, settings=_settings(args, design.settings))
         design.settings.heel_angles()
     return analyse(design), design.name
@@ -252,7 +254,10 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
             return "-"
         return f"{v:.1f} kg" if u is None else u.mass_text(v)
 
-    lines = [f"Hullwright report: {name}", f"Status: {a.message}", ""]
+    lines = [f"Hullwright report: {name}", f"Status: {a.message}"]
+    if a.curve is not None:
+        lines.append(f"{'Floating position':<28}{list_text(a.list_deg)}")
+    lines.append("")
     w = a.weights
     lines.append(f"{'Displacement':<28}{M(w.mass)}")
     lines.append(f"{'LCG / TCG':<28}{L(w.lcg)} / {L(w.tcg)}")
@@ -276,7 +281,7 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
             ("KG", L(h.kg)),
             ("GM (solid)", L(h.gm_solid)),
             ("Free-surface correction", L(h.fsc)),
-            ("GM", L(h.gm)),
+            ("GM (upright)", L(h.gm)),
             ("BM_L / GM_L", f"{L(h.bm_l, 2)} / {L(h.gm_l, 2)}"),
             ("LCB / LCF", f"{L(h.lcb)} / {L(h.lcf)}"),
             ("Waterplane area", _fmt(h.waterplane_area, 3, "m2") if u is None else
@@ -293,8 +298,13 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
     if c is not None:
         rows += [
             ("Gunwale under at", _fmt(c.gunwale_immersion_deg, 1, "deg")),
-            ("Max GZ", f"{L(c.max_gz)} at {c.max_gz_deg:.0f} deg"),
-            ("Vanishing stability", _fmt(c.avs_deg, 1, "deg") if c.avs_deg is not None else f"beyond {c.heel_deg[-1]:.0f} deg"),
+            ("Max GZ", f"{L(c.max_gz)} at {c.max_gz_deg:.1f} deg"),
+            (
+                "Vanishing stability",
+                _fmt(c.avs_deg, 1, "deg") if c.avs_deg is not None
+                else f"beyond {c.side * c.last_deg:.0f} deg" if c.list_deg is not None else "-",
+            ),
+            ("Range from the list", f"{'at least ' if c.range_open else ''}{c.range_deg:.1f} deg"),
         ]
         if u is None:
             rows += [
@@ -319,11 +329,17 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
     return "\n".join(lines)
 
 
-def _heel_dict(c: "heel_checks.HeelCheck") -> dict:
+def _heel_dict(c: HeelCheck) -> dict:
     return {
-        "title": c.title, "verdict": c.verdict, "message": c.message, "moved_mass_kg": c.moved_mass,
-        "heeling_arm_at_0_m": c.arm0, "static_heel_deg": c.static_heel_deg,
+        "title": c.title, "verdict": c.verdict.value, "message": c.message, "moved_mass_kg": c.moved_mass,
+        "heeling_arm_at_0_m": c.arm0, "start_heel_deg": c.start_deg, "static_heel_deg": c.static_heel_deg,
         "small_angle_heel_deg": c.small_angle_heel_deg, "low_side_freeboard_m": c.low_freeboard,
+        "margins": {
+            "share_of_max_righting_arm": c.arm_share,
+            "heel_left_before_gunwale_deg": c.heel_left_deg,
+            "freeboard_left_m": c.low_freeboard,
+            "gunwale_under_at_deg": c.gunwale_deg,
+        },
     }
 
 
@@ -341,27 +357,38 @@ def _crew_numbers(text: str, crew: int) -> list[int]:
     return [n - 1 for n in numbers]
 
 
-def _check(args: argparse.Namespace) -> None:
-    design = load_design(args.design)
-    members = None if args.crew is None else _crew_numbers(args.crew, len(design.loads.crew))
-    analysis = analyse(design)
-    if analysis.hydrostatics is None:
-        raise BadInput(analysis.message)
+def _check_settings(args: argparse.Namespace, design: Design) -> Design:
+    """The design with its saved check cases, overridden by the command's options."""
+    cs = design.checks
+    if args.crew is not None:
+        cs = replace(cs, shift_crew=tuple(_crew_numbers(args.crew, len(design.loads.crew))))
     distance = _length(args.distance, "--distance", 0.0, 20.0)
-    shift = heel_checks.crew_shift(design, members, distance, args.gunwale, analysis)
-    board = heel_checks.boarding(design, args.boarding_mass)
-    trims = [aids.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
-    beam = (
-        aids.beam_for_gm(design, _length(args.target_gm, "--target-gm", 0.001, 5.0) or aids.TARGET_GM_M)
-        if isinstance(design.hull, HullSketch)
-        else None
-    )
-    rows = whatif.sensitivity(design)
-    swamp = whatif.swamping(design, analysis)
+    if distance is not None:
+        cs = replace(cs, shift_distance_m=distance, shift_to_gunwale=False)
+    if args.gunwale:
+        cs = replace(cs, shift_to_gunwale=True)
+    if args.boarding_mass is not None:
+        cs = replace(cs, boarding_mass_kg=args.boarding_mass)
+    target = _length(args.target_gm, "--target-gm", 0.001, 5.0)
+    if target is not None:
+        cs = replace(cs, target_gm_m=target)
+    return replace(design, checks=cs)
+
+
+def _check(args: argparse.Namespace) -> None:
+    design = _check_settings(args, load_design(args.design))
+    result = assess(design)
+    if not result.floats:
+        raise BadInput(result.analysis.message)
+    shift, board, trims, beam = result.shift, result.boarding, result.trims, result.beam
+    rows, swamp = result.whatif, result.swamp
     if args.json:
         out = {
-            "crew_shift": _heel_dict(shift),
-            "boarding": _heel_dict(board),
+            "status": result.status.value,
+            "list_deg": result.list_deg,
+            "message": result.analysis.message,
+            "crew_shift": None if shift is None else _heel_dict(shift),
+            "boarding": None if board is None else _heel_dict(board),
             "level_trim": [
                 {"who": t.what, "x_now_m": t.x_before, "x_level_m": t.x_after, "trim_now_deg": t.trim_before_deg,
                  "trim_after_deg": t.trim_after_deg, "freeboard_aft_m": t.freeboard_aft,
@@ -375,28 +402,34 @@ def _check(args: argparse.Namespace) -> None:
             },
             "sensitivity": [
                 {"case": r.case, "displacement_kg": r.displacement, "GM_m": r.gm, "min_freeboard_m": r.min_freeboard,
-                 "gunwale_immersion_deg": r.gunwale_immersion_deg, "status": r.status}
+                 "gunwale_immersion_deg": r.gunwale_immersion_deg, "status": r.status.value,
+                 "list_deg": r.list_deg}
                 for r in rows
             ],
-            "swamping": {
+            "swamping": None if swamp is None else {
                 "reserve_buoyancy_kg": swamp.reserve_mass, "reserve_fraction": swamp.reserve_fraction,
                 "swamped_net_buoyancy_kg": swamp.swamped_net_buoyancy, "floats_swamped": swamp.floats_swamped,
                 "message": swamp.message,
             },
+            "problems": list(result.problems),
         }
         print(_json(out))
         return
-    lines = [f"Builder's checks: {design.name}", "", shift.message, board.message]
+    lines = [f"Builder's checks: {design.name}", "", f"Status: {result.analysis.message}", ""]
+    lines += [c.message for c in (shift, board) if c is not None]
     lines += [t.message for t in trims]
     if beam is not None:
         lines.append(beam.message)
-    lines += ["", f"{'case':<28}{'mass kg':>9}{'GM mm':>9}{'freeboard mm':>14}{'gunwale deg':>13}"]
+    lines += ["", f"{'case':<28}{'mass kg':>9}{'GM mm':>9}{'freeboard mm':>14}{'gunwale deg':>13}  status"]
     for r in rows:
         lines.append(
             f"{r.case:<28}{_fmt(r.displacement, 1):>9}{_fmt(r.gm and r.gm * 1000, 0):>9}"
             f"{_fmt(r.min_freeboard and r.min_freeboard * 1000, 0):>14}{_fmt(r.gunwale_immersion_deg, 1):>13}"
+            f"  {r.status.value}"
         )
-    lines += ["", swamp.message]
+    if swamp is not None:
+        lines += ["", swamp.message]
+    lines += [f"Could not run: {p}" for p in result.problems]
     print("\n".join(lines))
 
 

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from enum import Enum
 from typing import Sequence
 
 import numpy as np
@@ -20,8 +21,16 @@ from hydro.loads import CREW_MASS_KG, MassItem
 from hydro.hull import Stations
 from hydro.sections import SectionTable
 from hydro.stability import Analysis, StabilityCurve, righting_curve
+from hydro.wording import heel_sentence, heel_title
 
-__all__ = ["BODY_HALF_WIDTH_M", "MIN_SHIFTED_FREEBOARD_M", "HeelCheck", "boarding", "crew_shift"]
+__all__ = [
+    "BODY_HALF_WIDTH_M",
+    "MIN_SHIFTED_FREEBOARD_M",
+    "HeelCheck",
+    "Verdict",
+    "boarding",
+    "crew_shift",
+]
 
 FloatArray = NDArray[np.float64]
 
@@ -33,38 +42,83 @@ MIN_SHIFTED_FREEBOARD_M = 0.075
 BODY_HALF_WIDTH_M = 0.15
 
 
+class Verdict(str, Enum):
+    """What a heeling moment does: the boat holds at a heel, the gunwale goes under
+    first (an open boat floods), or no heel balances it (capsizes)."""
+
+    HOLDS = "holds"
+    FLOODS = "floods"
+    CAPSIZES = "capsizes"
+
+    def __str__(self) -> str:
+        return self.value
+
+
 @dataclass(frozen=True, eq=False)
 class HeelCheck:
-    """A heeling moment against the righting arm.
+    """A heeling moment against the righting arm, with its margins.
 
     Attributes
     ----------
-    title : what was checked
+    kind : "crew shift" or "boarding"
+    who : "all crew", names, or the boarding mass in words
+    distance : metres each person moves (None: to the hull side, or onto the gunwale)
+    to_gunwale : they sit on the gunwale
     moved_mass : kg moved (or added) to the side
     arm0 : heeling arm at zero heel, w d / Delta (m)
     heel_deg : (A,) angles of the curve used
     heeling_arm : (A,) heeling arm HA(phi) (m), to draw on the GZ plot
+    start_deg : the boat's list before the moment (degrees, + starboard)
     static_heel_deg : where GZ = HA, None if they never meet (capsize)
     small_angle_heel_deg : tan(theta) = w d / (Delta GM), for comparison
-    low_freeboard : low-side freeboard at the static heel (m), None if it capsizes
-    verdict : "holds", "floods" (the gunwale goes under first) or "capsizes"
-    message : one line for the builder
+    low_freeboard : low-side freeboard at the static heel (m), None if it capsizes: the
+        freeboard left
+    gunwale_deg : heel at which the low gunwale goes under, beyond the start (or None)
+    heel_left_deg : heel left from the static heel to the gunwale (None: not reached)
+    arm_share : the heeling arm as a share of the largest righting arm on that side
+        (1.0 = all of it; above 1 it capsizes)
+    verdict : see :class:`Verdict`
     """
 
-    title: str
+    kind: str
+    who: str
+    distance: float | None
+    to_gunwale: bool
     moved_mass: float
     arm0: float
     heel_deg: FloatArray
     heeling_arm: FloatArray
+    start_deg: float
     static_heel_deg: float | None
     small_angle_heel_deg: float | None
     low_freeboard: float | None
-    verdict: str
-    message: str
+    gunwale_deg: float | None
+    heel_left_deg: float | None
+    arm_share: float | None
+    verdict: Verdict
+
+    @property
+    def title(self) -> str:
+        """What was checked, in metric words (see :func:`hydro.wording.heel_title`)."""
+        return heel_title(self)
+
+    @property
+    def message(self) -> str:
+        """One line for the builder, metric (see :func:`hydro.wording.heel_sentence`)."""
+        return heel_sentence(self)
+
+
+def _first_rising(heel: FloatArray, f: FloatArray, after: float) -> int | None:
+    """First i with a rising zero crossing of f in [heel[i], heel[i+1]], heel[i+1] > after."""
+    ok = np.isfinite(f)
+    with np.errstate(invalid="ignore"):
+        hit = (f[:-1] < 0) & (f[1:] >= 0) & ok[:-1] & ok[1:] & (heel[1:] > after)
+    idx = np.flatnonzero(hit)
+    return int(idx[0]) if idx.size else None
 
 
 def _heel_check(
-    title: str,
+    what: tuple[str, str, float | None, bool],
     table: SectionTable,
     analysis: Analysis,
     rho: float,
@@ -72,47 +126,48 @@ def _heel_check(
     moment: float,
     rise_moment: float,
 ) -> HeelCheck:
-    """Static heel where GZ(phi) = (moment cos + rise_moment sin) / Delta."""
+    """Static heel where GZ(phi) = (moment cos + rise_moment sin) / Delta, rolling from
+    the boat's list towards starboard (the moment's side)."""
     base, curve, weights = analysis.hydrostatics, analysis.curve, analysis.weights
     assert base is not None and curve is not None
+    if curve.list_deg is None:
+        raise LoadError(analysis.message)
     delta = weights.mass
-    phi = np.radians(curve.heel_deg)
+    heel = curve.heel_deg
+    phi = np.radians(heel)
     arm = (moment * np.cos(phi) + rise_moment * np.sin(phi)) / delta
     small = math.degrees(math.atan(moment / (delta * base.gm))) if base.gm > 0 else None
+    start = float(curve.list_deg)
     diff = curve.gz - arm  # > 0 where the boat rights itself against the moment
-    if diff[0] >= 0:
-        static: float | None = float(curve.heel_deg[0])
+    static: float | None
+    if moment <= 0 and rise_moment <= 0:
+        static = start
     else:
-        ok = np.isfinite(diff)
-        ups = np.flatnonzero((diff[:-1] < 0) & (diff[1:] >= 0) & ok[:-1] & ok[1:])
+        i = _first_rising(heel, diff, start)
         static = (
-            _refine_heel(table, analysis, rho, moment, rise_moment, curve.heel_deg[ups[0]], curve.heel_deg[ups[0] + 1])
-            if ups.size
-            else None
+            None if i is None
+            else _refine_heel(table, analysis, rho, moment, rise_moment, heel[i], heel[i + 1])
         )
+    beyond = heel >= start - 1e-9
+    best = float(np.nanmax(np.where(beyond, curve.gz, np.nan))) if beyond.any() else math.nan
+    share = moment / delta / best if best > 0 else None
+    fb = np.where(beyond, curve.low_freeboard, np.nan)
+    under = [
+        float(heel[j] + (heel[j + 1] - heel[j]) * fb[j] / (fb[j] - fb[j + 1]))
+        for j in np.flatnonzero((fb[:-1] > 0) & (fb[1:] <= 0))
+    ]
+    gunwale = under[0] if under else None
+    if base.min_freeboard <= 0:
+        gunwale = start
     if static is None:
-        return HeelCheck(
-            title, moved, moment / delta, curve.heel_deg, arm, None, small, None, "capsizes",
-            f"{title}: the heeling arm exceeds the largest righting arm "
-            f"({curve.max_gz * 1000:.0f} mm) - no equilibrium, the boat capsizes.",
-        )
+        return HeelCheck(*what, moved, moment / delta, heel, arm, start, None, small, None,
+                         gunwale, None, share, Verdict.CAPSIZES)
     low_fb = _low_freeboard(table, analysis, rho, static)
-    gunwale = curve.gunwale_immersion_deg
-    if low_fb <= 0 or (gunwale is not None and gunwale <= static):
-        verdict = "floods"
-        text = (
-            f"{title}: heels to {static:.1f} deg, but the gunwale goes under at "
-            f"{gunwale:.1f} deg first - an open boat swamps."
-            if gunwale is not None
-            else f"{title}: heels to {static:.1f} deg with the gunwale under water."
-        )
-    else:
-        verdict = "holds"
-        text = f"{title}: heels to {static:.1f} deg with {low_fb * 1000:.0f} mm freeboard left on the low side"
-        if low_fb < MIN_SHIFTED_FREEBOARD_M:
-            text += f" - less than the {MIN_SHIFTED_FREEBOARD_M * 1000:.0f} mm suggested"
-        text += "."
-    return HeelCheck(title, moved, moment / delta, curve.heel_deg, arm, static, small, low_fb, verdict, text)
+    floods = low_fb <= 0 or (gunwale is not None and gunwale <= static)
+    left = None if gunwale is None else max(gunwale - static, 0.0)
+    verdict = Verdict.FLOODS if floods else Verdict.HOLDS
+    return HeelCheck(*what, moved, moment / delta, heel, arm, start, static, small, low_fb,
+                     gunwale, left, share, verdict)
 
 
 def _single_angle(table: SectionTable, analysis: Analysis, rho: float, heel: float) -> StabilityCurve:
@@ -221,13 +276,9 @@ def crew_shift(
         moved += c.mass
         moment += c.mass * d
         rise += c.mass * h
-    where = (
-        "onto the gunwale" if to_gunwale
-        else "to the side" if distance is None
-        else f"{distance:.2f} m to the side"
-    )
     who = "all crew" if len(chosen) == len(crew) else ", ".join(crew[i].name for i in chosen)
-    return _heel_check(f"Crew shift ({who} {where})", table, analysis, rho, moved, moment, rise)
+    what = ("crew shift", who, None if to_gunwale else distance, to_gunwale)
+    return _heel_check(what, table, analysis, rho, moved, moment, rise)
 
 
 def boarding(design: Design, mass: float = CREW_MASS_KG, x: float | None = None) -> HeelCheck:
@@ -248,4 +299,5 @@ def boarding(design: Design, mass: float = CREW_MASS_KG, x: float | None = None)
     analysis = analyse_stations(stations, loads, rho, design.settings, table)
     if analysis.hydrostatics is None:
         raise LoadError(analysis.message)
-    return _heel_check(f"Boarding ({mass:.0f} kg on the gunwale)", table, analysis, rho, mass, mass * b, 0.0)
+    what = ("boarding", "one person", None, True)
+    return _heel_check(what, table, analysis, rho, mass, mass * b, 0.0)

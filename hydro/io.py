@@ -536,7 +536,8 @@ def report_dict(a: Analysis, name: str = "") -> dict[str, Any]:
     w = a.weights
     out: dict[str, Any] = {
         "name": name,
-        "status": a.status,
+        "status": a.status.value,
+        "list_deg": _f(a.list_deg),
         "message": a.message,
         "displacement_kg": w.mass,
         "LCG_m": w.lcg,
@@ -592,6 +593,9 @@ def report_dict(a: Analysis, name: str = "") -> dict[str, Any]:
                 "max_gz_deg": c.max_gz_deg,
                 "vanishing_stability_deg": _f(c.avs_deg),
                 "loll_deg": _f(c.loll_deg),
+                "range_deg": c.range_deg,
+                "range_open": c.range_open,
+                "listing_side": "starboard" if c.side > 0 else "port",
                 "area_to_30_m_rad": _f(c.area_30),
                 "area_to_40_m_rad": _f(c.area_40),
                 "area_to_gunwale_m_rad": _f(c.area_to_gunwale),

@@ -7,8 +7,9 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 from hydro.design import Design, analyse_stations, check_context
-from hydro.loads import HEAVY_CREW_MASS_KG, Material
-from hydro.stability import Analysis
+from hydro.loads import Material
+from hydro.stability import Analysis, Status
+from hydro.wording import whatif_case
 
 __all__ = ["MATERIAL_SWAMPED_DENSITY", "SensitivityRow", "SwampResult", "sensitivity", "swamping"]
 
@@ -27,41 +28,69 @@ MATERIAL_SWAMPED_DENSITY: dict[str, float] = {
 
 @dataclass(frozen=True)
 class SensitivityRow:
-    """The readout under one variation of the load."""
+    """The readout under one variation of the load.
 
-    case: str
+    ``kind`` is "as designed", "soaked", "heavier crew", "bilge water" or "all three";
+    ``amount`` its size (the wet factor, the heaviest what-if crew mass in kg, or the
+    bilge depth in m); :func:`hydro.wording.whatif_case` names the row in any units.
+    """
+
+    kind: str
+    amount: float | None
     displacement: float | None
     gm: float | None
     min_freeboard: float | None
     gunwale_immersion_deg: float | None
-    status: str
+    status: Status
+    list_deg: float | None
+
+    @property
+    def case(self) -> str:
+        """The row's name, metric."""
+        return whatif_case(self)
 
 
-def sensitivity(design: Design, wet_factor: float = 1.5, heavy_crew: float = HEAVY_CREW_MASS_KG,
-                bilge_depth: float = 0.03) -> tuple[SensitivityRow, ...]:
-    """GM, least freeboard and gunwale-immersion angle as built, soaked, with heavier
-    crew (46 CFR 170.090: 84 kg), with bilge water, and all three together."""
-    loads = design.loads
-    heavier = tuple(replace(c, mass=max(c.mass, heavy_crew)) for c in loads.crew)
+def sensitivity(
+    design: Design,
+    wet_factor: float | None = None,
+    heavy_crew: float | None = None,
+    bilge_depth: float | None = None,
+) -> tuple[SensitivityRow, ...]:
+    """GM, least freeboard, gunwale-immersion angle, list and status as built, soaked,
+    with heavier crew, with bilge water, and all three together.
+
+    The cases come from ``design.checks`` (the wet factor, each crew member's what-if
+    mass - by default at least 84 kg, 46 CFR 170.090 - and the bilge depth) unless given
+    here; ``heavy_crew`` raises every crew member to at least that mass.
+    """
+    loads, cs = design.loads, design.checks
+    wet = cs.whatif_wet_factor if wet_factor is None else wet_factor
+    bilge = cs.whatif_bilge_m if bilge_depth is None else bilge_depth
+    masses = (
+        cs.heavier_crew_kg(tuple(c.mass for c in loads.crew)) if heavy_crew is None
+        else tuple(max(c.mass, heavy_crew) for c in loads.crew)
+    )
+    heavier = tuple(replace(c, mass=m) for c, m in zip(loads.crew, masses))
     cases = [
-        ("as designed", loads),
-        (f"soaked materials (x{wet_factor:g})", replace(loads, wet_factor=loads.wet_factor * wet_factor)),
-        (f"crew at {heavy_crew:g} kg each", replace(loads, crew=heavier)),
-        (f"{bilge_depth * 1000:.0f} mm bilge water", replace(loads, bilge_water_depth=loads.bilge_water_depth + bilge_depth)),
-        ("all three", replace(loads, wet_factor=loads.wet_factor * wet_factor, crew=heavier,
-                              bilge_water_depth=loads.bilge_water_depth + bilge_depth)),
+        ("as designed", None, loads),
+        ("soaked", wet, replace(loads, wet_factor=loads.wet_factor * wet)),
+        ("heavier crew", max(masses, default=0.0), replace(loads, crew=heavier)),
+        ("bilge water", bilge, replace(loads, bilge_water_depth=loads.bilge_water_depth + bilge)),
+        ("all three", None, replace(loads, wet_factor=loads.wet_factor * wet, crew=heavier,
+                                    bilge_water_depth=loads.bilge_water_depth + bilge)),
     ]
     stations, table, rho = check_context(design)
     rows = []
-    for name, ld in cases:
+    for kind, amount, ld in cases:
         a = analyse_stations(stations, ld, rho, design.settings, table)
         h, c = a.hydrostatics, a.curve
         rows.append(SensitivityRow(
-            name, a.weights.mass,
+            kind, amount, a.weights.mass,
             h.gm if h else None,
             h.min_freeboard if h else None,
             c.gunwale_immersion_deg if c else None,
             a.status,
+            a.list_deg,
         ))
     return tuple(rows)
 

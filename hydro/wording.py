@@ -14,9 +14,23 @@ from typing import TYPE_CHECKING
 from hydro.units import METRIC, UnitSystem
 
 if TYPE_CHECKING:  # pragma: no cover - types only, no import cycle at run time
+    from hydro.heel_checks import HeelCheck
     from hydro.stability import Analysis
+    from hydro.whatif import SensitivityRow
 
-__all__ = ["angle_text", "list_text", "side_word", "status_headline", "status_sentence"]
+__all__ = [
+    "angle_text",
+    "heel_margins",
+    "heel_sentence",
+    "heel_title",
+    "heel_verdict_text",
+    "list_text",
+    "share_text",
+    "side_word",
+    "status_headline",
+    "status_sentence",
+    "whatif_case",
+]
 
 #: A list smaller than this (degrees) is called upright.
 UPRIGHT_DEG = 0.05
@@ -112,3 +126,73 @@ def status_sentence(a: Analysis, u: UnitSystem = METRIC) -> str:
     if abs(c.list_deg) < UPRIGHT_DEG:
         return "Floats upright with the gunwale clear."
     return f"Floats but {list_text(c.list_deg)}, the gunwale clear."
+
+
+def heel_title(check: HeelCheck, u: UnitSystem = METRIC) -> str:
+    """``Crew shift (all crew 300 mm to the side)``, ``Boarding (75 kg on the gunwale)``."""
+    if check.kind == "boarding":
+        return f"Boarding ({u.mass_text(check.moved_mass)} on the gunwale)"
+    where = (
+        "onto the gunwale" if check.to_gunwale
+        else "to the side" if check.distance is None
+        else f"{u.length_text(check.distance)} to the side"
+    )
+    return f"Crew shift ({check.who} {where})"
+
+
+def share_text(share: float | None) -> str:
+    """``uses 87 % of the boat's best righting arm``."""
+    if share is None or not math.isfinite(share):
+        return "the boat has no righting arm to spare on that side"
+    return f"uses {100 * share:.0f} % of the boat's best righting arm"
+
+
+def heel_margins(check: HeelCheck, u: UnitSystem = METRIC) -> str:
+    """The margins of a heel check: arm used, heel and freeboard left."""
+    from hydro.heel_checks import MIN_SHIFTED_FREEBOARD_M, Verdict
+
+    parts = [share_text(check.arm_share)]
+    if check.verdict is Verdict.HOLDS:
+        if check.heel_left_deg is not None:
+            parts.append(f"{angle_text(check.heel_left_deg, 1)} of heel left before the gunwale")
+        else:
+            parts.append("the gunwale stays clear at every heel computed")
+        fb = f"{u.length_text(check.low_freeboard)} freeboard left on the low side"
+        if check.low_freeboard is not None and check.low_freeboard < MIN_SHIFTED_FREEBOARD_M:
+            fb += f", less than the {u.length_text(MIN_SHIFTED_FREEBOARD_M)} suggested"
+        parts.append(fb)
+    return "; ".join(parts)
+
+
+def heel_verdict_text(check: HeelCheck, u: UnitSystem = METRIC) -> str:
+    """What happens, without the title: ``heels to 8.3° to starboard ...``."""
+    from hydro.heel_checks import Verdict
+
+    if check.verdict is Verdict.CAPSIZES or check.static_heel_deg is None:
+        return (
+            f"no heel balances the heeling arm ({share_text(check.arm_share)}): "
+            "the boat capsizes."
+        )
+    heel = f"heels to {angle_text(check.static_heel_deg, 1)} to {side_word(check.static_heel_deg)}"
+    if check.verdict is Verdict.FLOODS:
+        at = (
+            f" at {angle_text(check.gunwale_deg, 1)}" if check.gunwale_deg is not None else ""
+        )
+        return f"{heel}, but the gunwale goes under{at} first: an open boat swamps."
+    return f"{heel}: {heel_margins(check, u)}."
+
+
+def heel_sentence(check: HeelCheck, u: UnitSystem = METRIC) -> str:
+    """One line: the case and what happens, with its margins."""
+    return f"{heel_title(check, u)}: {heel_verdict_text(check, u)}"
+
+
+def whatif_case(row: SensitivityRow, u: UnitSystem = METRIC) -> str:
+    """The name of a what-if row: ``soaked materials (x1.5)``, ``30 mm bilge water``."""
+    if row.kind == "soaked" and row.amount is not None:
+        return f"soaked materials (x{row.amount:g})"
+    if row.kind == "heavier crew" and row.amount is not None:
+        return f"crew up to {u.mass_text(row.amount)} each"
+    if row.kind == "bilge water" and row.amount is not None:
+        return f"{u.length_text(row.amount)} bilge water"
+    return row.kind
