@@ -107,7 +107,7 @@ def test_check_command_json(capsys):
 def test_check_command_text_and_bad_crew(capsys):
     assert main(["check", PUNT, "--crew", "1", "--distance", "0.1"]) == 0
     out = capsys.readouterr().out
-    assert "Crew shift (bow paddler (junior) 0.10 m to the side)" in out
+    assert "Crew shift (bow paddler (junior) 100 mm to the side)" in out
     assert main(["check", PUNT, "--crew", "x"]) == 2
     assert "crew numbers" in capsys.readouterr().err
     assert main(["check", PUNT, "--crew", "7"]) == 2
