@@ -411,7 +411,7 @@ class _Points:
     gz: FloatArray
     trim_deg: FloatArray
     low_freeboard: FloatArray
-    converged: FloatArray
+    converged: NDArray[np.bool_]
 
 
 def _starboard_points(
