@@ -1,4 +1,4 @@
-"""The ``hullwright`` command line: report, offsets, plate, check, incline, resize, open.
+"""The ``hullwright`` command line: report, offsets, plate, check, incline, resize, pack, open.
 
 Every length may be typed as in the app: a plain number is in metres, or give a unit
 and fractions ("3.6 m", "360 cm", "141 3/4 in", "11' 9 3/4\"", "2-04-3").
@@ -7,7 +7,8 @@ Every bad input ends with a one-line message on stderr and exit code 2, and noth
 written: output paths are checked before any work and written through a temporary file
 (:mod:`hydro.outputs`), never over an input.  A reader that closes the pipe early
 (``hullwright report boat.json | head``) ends the program quietly.  Anything unexpected is
-still one line on stderr, with exit code 70.  Only ``plate`` and ``open`` load Qt.
+still one line on stderr, with exit code 70.  Only ``plate``, ``pack -o`` and
+``open`` load Qt.
 """
 
 from __future__ import annotations
@@ -167,12 +168,16 @@ def _parser() -> argparse.ArgumentParser:
     rs.add_argument("-o", "--output", required=True, help="NEW.json to write")
     pk = sub.add_parser("pack", help="the build pack: flat panels, frames, sheet layout, materials")
     pk.add_argument("design")
+    pk.add_argument("-o", "--output", help="PACK.pdf to write")
+    pk.add_argument("--paper", default="A4", help="A4, A3, Letter or Tabloid (default A4)")
+    pk.add_argument("--units", default="metric", choices=["metric", "imperial"])
+    pk.add_argument("--dxf", metavar="DIR", help="also write one DXF per sheet into DIR")
     pk.add_argument("--sheet", default="1220x2440",
                     help="stock sheet WxH: mm (1220x2440), m (1.22x2.44m), ft (4x8ft) or in")
     pk.add_argument("--grain", choices=["locked", "free"], default="locked",
                     help="locked: pieces turn 0 or 180 degrees only (default)")
     pk.add_argument("--kerf", type=float, default=3.0, help="saw kerf between pieces, mm (default 3)")
-    pk.add_argument("--margin", type=float, default=5.0, help="clear sheet edge, mm (default 5)")
+    pk.add_argument("--margin", type=float, default=2.0, help="clear sheet edge, mm (default 2)")
     pk.add_argument("--joint", choices=["auto", "scarf", "butt"], default="auto",
                     help="joints in long pieces (auto: scarf, or staggered butts in laminates)")
     pk.add_argument("--scarf-ratio", type=float, default=8.0, help="scarf length / thickness (default 8)")
@@ -554,14 +559,43 @@ def _pack_settings(args: argparse.Namespace) -> "PackSettings":
     )
 
 
+def _headless_qt() -> None:
+    """Paint offscreen when there is no display (a server, a terminal session)."""
+    import os
+
+    if not (os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY")):
+        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+
+
 def _pack(args: argparse.Namespace) -> None:
     from hydro.build_pack import build_pack, pack_dict
+    from hydro.outputs import check_output
 
-    if not args.json:
-        raise BadInput("pack: give --json")
+    if not (args.output or args.json or args.dxf):
+        raise BadInput("pack: give -o PACK.pdf, --dxf DIR or --json")
+    papers = ("A4", "A3", "Letter", "Tabloid")
+    paper = next((k for k in papers if k.upper() == args.paper.upper()), None)
+    if paper is None:
+        raise BadInput(f"--paper must be one of {', '.join(papers)}")
+    if args.output:
+        if Path(args.output).suffix.lower() != ".pdf":
+            raise BadInput("the build pack file must end in .pdf")
+        check_output(args.output, [args.design])
+    if args.dxf and not Path(args.dxf).is_dir():
+        raise BadInput(f"--dxf: folder {args.dxf} does not exist")
     settings = _pack_settings(args)
     design = load_design(args.design)
     pack = build_pack(design, settings)
+    if args.output:
+        _headless_qt()
+        from app.pack_pages import write_pack_pdf
+
+        write_pack_pdf(args.output, design, pack, paper, args.units, Path(args.design).name,
+                       [args.design])
+    if args.dxf:
+        from app.pack_dxf import write_sheet_dxfs
+
+        write_sheet_dxfs(pack, args.dxf, Path(args.design).stem)
     if args.json:
         print(_json(pack_dict(pack)))
 

@@ -77,7 +77,7 @@ class PackSettings:
     """
 
     sheet_m: tuple[float, float] = (1.22, 2.44)
-    margin_m: float = 0.005
+    margin_m: float = 0.002
     kerf_m: float = 0.003
     grain_locked: bool = True
     joint: str = "auto"
@@ -236,12 +236,14 @@ def _plan_joints(
 ) -> tuple[tuple[float, ...], ...]:
     """Joint positions (u) per layer, clear of frames and of joints already placed."""
     out = []
-    for _ in range(layers):
+    for layer in range(layers):
         if piece.ticks:
             avoid = tuple(_u_of_x(piece, x) for x in [*frames_x, *taken_x])
         else:
             avoid = ()
-        cuts = joint_positions(piece.length_m, usable, joint, avoid)
+        # long parts as long as a sheet, at alternate ends layer by layer
+        prefer = 1 if layer % 2 == 0 else -1
+        cuts = joint_positions(piece.length_m, usable, joint, avoid, prefer=prefer)
         out.append(cuts)
         if piece.ticks:
             taken_x.extend(_x_of_u(piece, u) for u in cuts)
@@ -276,7 +278,9 @@ def _layout_pieces(job: PieceJob) -> list[LayoutPiece]:
                     block = butt_block(base, u, job.joint)
                     if block is not None:
                         label = f"butt block {n + 1}, {piece.name}" + (f", {side}" if side else "")
-                        out.append(LayoutPiece(label, piece.name, block, False, job.material))
+                        out.append(
+                            LayoutPiece(label, piece.name, block, False, job.material, False)
+                        )
     return out
 
 

@@ -41,6 +41,7 @@ __all__ = [
     "end_pieces",
     "frame_pieces",
     "offset_rows",
+    "half_outline",
 ]
 
 FloatArray = NDArray[np.float64]
@@ -96,7 +97,7 @@ class FlatPiece:
 
     Attributes
     ----------
-    name : e.g. "bottom", "side", "transom (aft)", "frame at 1.300 m"
+    name : e.g. "bottom", "side", "transom (aft)", "frame 2"
     kind : "panel", "end", "frame" or "deck"
     surface : "bottom", "sides" or "ends": which materials cover it
     count : how many to cut per layer
@@ -109,6 +110,8 @@ class FlatPiece:
     strain : edge strain estimate sec(tau/2) - 1 at the largest twist
     seam_m : length of its edges that join other pieces (ends: all but the top)
     face_note : which face the drawing shows
+    notes : anything else to say about it
+    position_m : where a frame or end stands along the hull (m from the aft end)
     """
 
     name: str
@@ -126,6 +129,7 @@ class FlatPiece:
     seam_m: float = 0.0
     face_note: str = ""
     notes: tuple[str, ...] = field(default=())
+    position_m: float | None = None
 
     @property
     def polygon(self) -> shapely.Polygon:
@@ -317,6 +321,13 @@ def _edge_name(index: int, m: int, rows: list[int], raft: bool) -> str:
     if index == 0:
         return "deck centreline" if raft else "keel"
     number = rows.index(index)
+    if raft:
+        if number == 1:
+            return "deck edge"
+        inner = rows[2:-1]
+        if len(inner) == 2:
+            return "inner chine" if index == inner[0] else "outer chine"
+        return f"chine {number - 1}"
     return "chine" if len(rows) == 3 else f"chine {number}"
 
 
@@ -524,6 +535,7 @@ def end_pieces(stations: Stations, min_area_m2: float = 1e-4) -> tuple[FlatPiece
                 marks=marks,
                 seam_m=seam,
                 face_note="outside face shown (seen from " + ("aft)" if which == 0 else "forward)"),
+                position_m=float(stations.x[which]),
             )
         )
     return tuple(out)
@@ -563,16 +575,16 @@ def frame_pieces(
     else:
         halves = list(half_sections_at(sketch, xs))
     spacing = float(np.min(np.diff(xs))) if xs.size > 1 else math.inf
-    out = []
+    out: list[FlatPiece] = []
     for x, half in zip(xs, halves):
-        piece = _frame(float(x), half, skin_m, marks, spacing)
+        piece = _frame(float(x), half, skin_m, marks, spacing, len(out) + 1)
         if piece is not None:
             out.append(piece)
     return tuple(out)
 
 
 def _frame(
-    x: float, half: FloatArray, skin_m: float, marks: FrameMarks, spacing: float
+    x: float, half: FloatArray, skin_m: float, marks: FrameMarks, spacing: float, number: int
 ) -> FlatPiece | None:
     if np.max(half[:, 0]) <= 1e-6:
         return None
@@ -611,7 +623,7 @@ def _frame(
     shift = [float(np.max(half[:, 0])), 0.0]
     line_marks = [Mark(mk.label, mk.points + shift, mk.role) for mk in line_marks]
     return FlatPiece(
-        name=f"frame at {x:.3f} m",
+        name=f"frame {number}",
         kind="frame",
         surface="frames",
         count=1,
@@ -619,6 +631,7 @@ def _frame(
         outline=ring,
         marks=tuple(line_marks),
         face_note=f"seen from aft; inset {skin_m * 1000:.0f} mm for the skin",
+        position_m=x,
     )
 
 
@@ -643,6 +656,25 @@ def _edge_at(edge: FloatArray, u: float) -> float | None:
     return float(np.interp(u, e[:, 0], e[:, 1]))
 
 
+def half_outline(outline: FloatArray, centre: float) -> FloatArray:
+    """The starboard half of a symmetric outline, from the centreline at the bottom round
+    to the centreline (or the sheer) at the top: the points a builder marks."""
+    on_cl = np.abs(outline[:, 0] - centre) < 1e-6
+    low = np.where(on_cl, outline[:, 1], np.inf)
+    start = int(np.argmin(low)) if on_cl.any() else int(np.argmin(outline[:, 1]))
+    ring = np.roll(outline, -start, axis=0)
+    if len(ring) > 1 and ring[1, 0] < centre - 1e-9:
+        ring = np.roll(ring[::-1], 1, axis=0)
+    out = [ring[0]]
+    for p in ring[1:]:
+        if p[0] < centre - 1e-9:
+            break
+        out.append(p)
+        if abs(p[0] - centre) < 1e-6:
+            break
+    return np.array(out)
+
+
 def offset_rows(
     piece: FlatPiece, spacing_m: float | None = None
 ) -> list[tuple[str, list[float | None]]]:
@@ -650,13 +682,16 @@ def offset_rows(
 
     Panels: at every station tick, (along, up) of the lower edge and of the upper edge;
     with ``spacing_m``, also every ``spacing_m`` along the baseline: the height of each
-    edge there.  Ends and frames: the corner points, (across, up).
+    edge there.  Ends and frames: the outline's points on the starboard half, (across
+    from the centreline, up from the base), from the bottom round to the top.
     Returns rows of (label, values in metres; None where the edge does not reach).
     """
     if spacing_m is not None and not spacing_m > 0:
         raise PanelError("the offset spacing must be positive")
     if not piece.ticks:
-        return [(f"point {n + 1}", [float(p[0]), float(p[1])]) for n, p in enumerate(piece.outline)]
+        centre = next((float(m.points[0, 0]) for m in piece.marks if m.label == "centreline"), 0.0)
+        half = half_outline(piece.outline, centre)
+        return [(f"{n + 1}", [float(p[0] - centre), float(p[1])]) for n, p in enumerate(half)]
     rows: list[tuple[str, list[float | None]]] = [
         (t.label, [t.lower[0], t.lower[1], t.upper[0], t.upper[1]]) for t in piece.ticks
     ]

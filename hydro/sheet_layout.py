@@ -67,6 +67,8 @@ class LayoutPiece:
     polygon : its outline in its own coordinates (u along its length)
     mirrored : draw as the mirror image (a port/starboard twin)
     material : the stock it is cut from
+    in_piece_frame : the polygon is in the flat piece's own (u, v) coordinates, so the
+        piece's marks belong on it (False for a butt block)
     """
 
     label: str
@@ -74,15 +76,32 @@ class LayoutPiece:
     polygon: shapely.Polygon
     mirrored: bool = False
     material: str = ""
+    in_piece_frame: bool = True
 
 
 @dataclass(frozen=True, eq=False)
 class Placement:
-    """A piece on a sheet: its label and its outline in sheet coordinates (m)."""
+    """A piece on a sheet.
+
+    Attributes
+    ----------
+    piece : what is placed
+    polygon : its outline in sheet coordinates (m)
+    turned : degrees it was turned: 0, 90, 180 or 270 (after mirroring)
+    offset : shift after turning (m)
+    """
 
     piece: LayoutPiece
     polygon: shapely.Polygon
-    turned: int  # degrees: 0, 90, 180 or 270
+    turned: int
+    offset: tuple[float, float] = (0.0, 0.0)
+
+    def to_sheet(self, points: FloatArray) -> FloatArray:
+        """(k, 2) piece coordinates -> sheet coordinates, as the outline was moved."""
+        p = np.asarray(points, dtype=float) * ([1.0, -1.0] if self.piece.mirrored else 1.0)
+        a = np.radians(self.turned)
+        rot = np.array([[np.cos(a), -np.sin(a)], [np.sin(a), np.cos(a)]])
+        return p @ rot.T + self.offset
 
 
 @dataclass(frozen=True, eq=False)
@@ -151,12 +170,16 @@ def joint_positions(
     joint: JointSpec,
     avoid: tuple[float, ...] = (),
     clearance: float = 0.15,
+    prefer: int = 0,
 ) -> tuple[float, ...]:
     """Where to cut a piece of ``length`` (m, along u) so every part fits ``usable``.
 
     The fewest parts; the joints start evenly spaced and slide, as far as the parts
     still fit, to keep ``clearance`` away from the positions in ``avoid`` (frames, the
-    joints of other panels and layers).  Returns the joint positions along u.
+    joints of other panels and layers).  ``prefer`` +1 slides them forward (the first
+    part as long as a sheet, so the short offcut parts nest together), -1 aft, 0 keeps
+    them central.  No part is shorter than END_CLEARANCE_M where the sheet allows.
+    Returns the joint positions along u.
     """
     if length <= usable + 1e-9:
         return ()
@@ -176,10 +199,11 @@ def joint_positions(
     candidates = np.linspace(lo, hi, 81) if hi > lo else np.zeros(1)
 
     def score(shift: float) -> float:
+        lean = 0.05 * (prefer * shift if prefer else -abs(shift))
         if not avoid:
-            return -abs(shift)
+            return lean
         gaps = [min(abs(b + shift - a) for a in avoid) for b in base]
-        return min(min(gaps), clearance) - 0.05 * abs(shift)
+        return min(min(gaps), clearance) + lean
 
     best = max(candidates, key=score)
     return tuple(float(b + best) for b in base)
@@ -219,19 +243,20 @@ def butt_block(polygon: shapely.Polygon, cut: float, joint: JointSpec) -> shapel
     return shapely.box(0.0, 0.0, length, width)
 
 
-def _normalise(poly: shapely.Polygon) -> shapely.Polygon:
-    minx, miny, _, _ = poly.bounds
-    return affinity.translate(poly, -minx, -miny)
+_Shape = tuple[int, shapely.Polygon, tuple[float, float]]
 
 
-def _orientations(piece: LayoutPiece, grain_locked: bool) -> list[tuple[int, shapely.Polygon]]:
+def _orientations(piece: LayoutPiece, grain_locked: bool) -> list[_Shape]:
+    """(turn, outline moved to the origin, the shift that moved it) per allowed turn."""
     base = piece.polygon
     if piece.mirrored:
         base = affinity.scale(base, 1.0, -1.0, origin=(0, 0))
     turns = (0, 180) if grain_locked else (0, 90, 180, 270)
     out = []
     for t in turns:
-        out.append((t, _normalise(affinity.rotate(base, t, origin=(0, 0)))))
+        turned = affinity.rotate(base, t, origin=(0, 0))
+        minx, miny, _, _ = turned.bounds
+        out.append((t, affinity.translate(turned, -minx, -miny), (-minx, -miny)))
     return out
 
 
@@ -291,18 +316,18 @@ class _SheetFill:
             x, y = at(hi)
         return x, y
 
-    def place(
-        self, piece: LayoutPiece, turned: int, shape: shapely.Polygon, spot: tuple[float, float]
-    ) -> None:
-        moved = affinity.translate(shape, *spot)
+    def place(self, piece: LayoutPiece, shape: _Shape, spot: tuple[float, float]) -> None:
+        turned, outline, shift = shape
+        moved = affinity.translate(outline, *spot)
         self.placed.append(moved)
-        self.placements.append(Placement(piece, moved, turned))
+        offset = (shift[0] + spot[0], shift[1] + spot[1])
+        self.placements.append(Placement(piece, moved, turned, offset))
 
 
 def lay_out(
     pieces: list[LayoutPiece],
     sheet_wl: tuple[float, float],
-    margin: float = 0.005,
+    margin: float = 0.002,
     kerf: float = 0.003,
     grain_locked: bool = True,
     material: str = "",
@@ -348,18 +373,16 @@ def lay_out(
     return Layout(sheets, lower_bound(area, sheet_area) if pieces else 0, util)
 
 
-def _try_place(
-    fill: _SheetFill, piece: LayoutPiece, shapes: list[tuple[int, shapely.Polygon]]
-) -> bool:
+def _try_place(fill: _SheetFill, piece: LayoutPiece, shapes: list[_Shape]) -> bool:
     """Place the piece at the lowest, then leftmost, spot over its orientations."""
-    best: tuple[tuple[float, float], int, shapely.Polygon] | None = None
-    for turned, shape in shapes:
-        spot = fill.best_spot(shape)
+    best: tuple[tuple[float, float], _Shape] | None = None
+    for shape in shapes:
+        spot = fill.best_spot(shape[1])
         if spot is not None and (best is None or (spot[1], spot[0]) < (best[0][1], best[0][0])):
-            best = (spot, turned, shape)
+            best = (spot, shape)
     if best is None:
         return False
-    fill.place(piece, best[1], best[2], best[0])
+    fill.place(piece, best[1], best[0])
     return True
 
 

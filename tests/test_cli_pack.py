@@ -35,7 +35,7 @@ def test_pack_sheet_option(capsys):
         (["--tape-roll", "-1"], "tape roll length must be a positive number"),
         (["--sheet", "0x2440"], "must be positive"),
         (["--sheet", "big"], "give WxH"),
-        (["--sheet", "300x2440"], "'bottom' is 806 mm wide: it needs a sheet at least 817 mm"),
+        (["--sheet", "300x2440"], "'bottom' is 806 mm wide: it needs a sheet at least 811 mm"),
     ],
 )
 def test_pack_bad_input_is_one_line_and_exit_2(capsys, extra, message):
@@ -47,3 +47,31 @@ def test_pack_bad_input_is_one_line_and_exit_2(capsys, extra, message):
 def test_parse_sheet_units():
     assert parse_sheet("1.25x2.5m") == (1.25, 2.5)
     assert parse_sheet("2440 x 1220") == (1.22, 2.44)
+
+
+def test_pack_pdf_and_dxf(tmp_path, capsys):
+    import ezdxf
+
+    out = tmp_path / "punt-pack.pdf"
+    assert main(["pack", PUNT, "-o", str(out), "--dxf", str(tmp_path), "--paper", "Letter"]) == 0
+    assert out.read_bytes().startswith(b"%PDF")
+    sheets = sorted(tmp_path.glob("*.dxf"))
+    assert sheets
+    doc = ezdxf.readfile(sheets[0])
+    assert doc.units == ezdxf.units.MM
+    layers = {e.dxf.layer for e in doc.modelspace()}
+    assert {"CUT", "MARK", "TEXT"} <= layers
+
+
+@pytest.mark.parametrize(
+    "extra, message",
+    [
+        (["-o", "pack.png"], "must end in .pdf"),
+        (["--paper", "B5", "--json"], "--paper must be one of"),
+        (["--dxf", "/no/such/folder"], "does not exist"),
+        ([], "give -o PACK.pdf, --dxf DIR or --json"),
+    ],
+)
+def test_pack_output_refusals(tmp_path, capsys, extra, message):
+    assert main(["pack", PUNT, *extra]) == 2
+    assert message in capsys.readouterr().err

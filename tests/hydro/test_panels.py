@@ -240,3 +240,18 @@ def test_offset_rows_follow_the_station_ticks_and_spacing():
     assert rows[5][1][0] == pytest.approx(1.5) and rows[5][1][3] == pytest.approx(side.width_m)
     spaced = offset_rows(side, 0.1)
     assert len(spaced) == 11 + 31 and spaced[-1][0] == "3.000"
+
+
+def test_raft_edges_and_frame_points_read_as_a_builder_names_them():
+    design = load_design(SAMPLES / "drift-lab-raft.json")
+    pieces = hull_panels(design.hull).pieces
+    assert [(p.lower_edge, p.upper_edge) for p in pieces] == [
+        ("deck edge", "deck edge"),
+        ("deck edge", "inner chine"),
+        ("inner chine", "outer chine"),
+        ("outer chine", "sheer"),
+    ]
+    end = end_pieces(design.stations())[0]
+    rows = offset_rows(end)
+    assert rows[0][1][0] == pytest.approx(0.0)  # starts on the centreline at the bottom
+    assert max(r[1][0] for r in rows) == pytest.approx(0.78)  # out to the gunwale
