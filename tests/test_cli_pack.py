@@ -49,7 +49,7 @@ def test_parse_sheet_units():
     assert parse_sheet("2440 x 1220") == (1.22, 2.44)
 
 
-def test_pack_pdf_and_dxf(tmp_path, capsys):
+def test_pack_pdf_and_dxf(qapp, tmp_path, capsys):
     import ezdxf
 
     out = tmp_path / "punt-pack.pdf"
