@@ -41,20 +41,27 @@ from PySide6.QtWidgets import (
 )
 
 from hydro import Design, HullSketch, HullwrightError, scale_breadth
-from hydro import aids, heel_checks, incline
-from hydro.aids import BeamResult, TrimResult
+from hydro import aids, incline
 from hydro.heel_checks import HeelCheck
 from hydro.incline import InclineReading, InclineResult
-from hydro.whatif import SensitivityRow, SwampResult
+from hydro.whatif import SensitivityRow
 
 from app import style
-from app.checks_runner import CheckInputs, CheckResults, ChecksJob, Relay
+from app.checks_runner import CheckResults, ChecksJob, Relay
 from app.document import HullDocument
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
+from hydro.wording import (
+    beam_text,
+    heel_title,
+    heel_verdict_text,
+    swamp_text,
+    trim_text,
+    whatif_case,
+)
 from app.view_options import ViewOptions
 
-__all__ = ["ChecksPanel", "heel_text", "trim_text", "beam_text", "swamp_text"]
+__all__ = ["ChecksPanel"]
 
 _VERDICT_STATE = {"holds": "stable", "floods": "marginal", "capsizes": "unstable"}
 _VERDICT_WORDS = {"holds": "HOLDS", "floods": "FLOODS FIRST", "capsizes": "CAPSIZES"}
@@ -68,47 +75,6 @@ def _verdict_label() -> QLabel:
     return label
 
 
-def heel_text(check: HeelCheck, u: UnitSystem) -> str:
-    """The check's verdict in words, lengths in the display units."""
-    if check.verdict == "capsizes" or check.static_heel_deg is None:
-        return "no heel where the boat rights itself against the moment: it capsizes."
-    heel = f"heels to {check.static_heel_deg:.1f}°"
-    if check.verdict == "floods":
-        return f"{heel}, but the gunwale goes under first: an open boat swamps."
-    text = f"{heel} with {u.length_text(check.low_freeboard)} freeboard left on the low side"
-    if check.low_freeboard is not None and check.low_freeboard < heel_checks.MIN_SHIFTED_FREEBOARD_M:
-        text += f", less than the {u.length_text(heel_checks.MIN_SHIFTED_FREEBOARD_M)} suggested"
-    return text + "."
-
-
-def trim_text(t: TrimResult, u: UnitSystem) -> str:
-    if t.x_after is None:
-        return f"Moving {t.what} alone cannot float the boat level (trim now {t.trim_before_deg:+.2f}°)."
-    return (
-        f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
-        f"trim {t.trim_after_deg:+.2f}° (now {t.trim_before_deg:+.2f}°), freeboard aft "
-        f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
-    )
-
-
-def beam_text(b: BeamResult, u: UnitSystem) -> str:
-    if b.factor is None:
-        return f"No beam between 0.3 and 3 times the present one gives GM {u.length_text(b.target_gm)}."
-    return (
-        f"GM reaches {u.length_text(b.gm_after)} at a beam of {u.length_text(b.beam_after)} "
-        f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives {u.length_text(b.gm_before)}."
-    )
-
-
-def swamp_text(r: SwampResult, u: UnitSystem) -> str:
-    head = f"Reserve buoyancy {u.mass_text(r.reserve_mass)} ({100 * r.reserve_fraction:.0f} % of the hull)."
-    if r.floats_swamped is None:
-        return head + " Closed hull: it cannot fill while its deck and seams hold. Still wear life jackets."
-    if r.floats_swamped:
-        return head + " Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
-    return head + " Swamped, the hull sinks: the crew's life jackets are the only flotation - wear them."
-
-
 def _show_verdict(label: QLabel, check: HeelCheck | None, u: UnitSystem, waiting: str = "") -> None:
     if check is None:
         label.setText(waiting or "—")
@@ -118,7 +84,7 @@ def _show_verdict(label: QLabel, check: HeelCheck | None, u: UnitSystem, waiting
     back, ink = style.STATE_COLOURS[state]
     glyph = style.STATE_GLYPHS[state]
     label.setStyleSheet(f"background:{back}; color:{ink}; border-radius:4px;")
-    label.setText(f"<b>{glyph} {_VERDICT_WORDS[check.verdict]}</b> - {check.title}:<br>{heel_text(check, u)}")
+    label.setText(f"<b>{glyph} {_VERDICT_WORDS[check.verdict]}</b> - {heel_title(check, u)}:<br>{heel_verdict_text(check, u)}")
 
 
 class ChecksPanel(QWidget):
@@ -130,7 +96,8 @@ class ChecksPanel(QWidget):
         super().__init__()
         self.document = document
         self.options = options
-        self.inputs = CheckInputs()
+        self.trim_choice: tuple[str, int] = ("crew", 0)
+        self._distance = 0.3  # shown in the distance box while another mode is chosen
         self._units = options.units  # what the spin boxes show now
         self.results: CheckResults | None = None
         self.incline: InclineResult | None = None
@@ -353,7 +320,9 @@ class ChecksPanel(QWidget):
 
     def _refresh_units(self) -> None:
         u = self.options.units
-        for box, metres in ((self.distance_box, self.inputs.distance), (self.target_box, self.inputs.target_gm)):
+        cs = self.document.committed.checks
+        distance = cs.shift_distance_m if cs.shift_distance_m is not None else self._distance
+        for box, metres in ((self.distance_box, distance), (self.target_box, cs.target_gm_m)):
             box.blockSignals(True)
             box.setDecimals(u.length_decimals)
             box.setSuffix(f" {u.length}")
@@ -366,7 +335,7 @@ class ChecksPanel(QWidget):
             box.setSuffix(f" {u.length}")
             box.setValue(u.to_length(metres))
         weighed = old.from_mass(self.weighed_box.value())
-        for box, kg in ((self.boarding_box, self.inputs.boarding_mass), (self.weighed_box, weighed)):
+        for box, kg in ((self.boarding_box, cs.boarding_mass_kg), (self.weighed_box, weighed)):
             box.blockSignals(True)
             box.setDecimals(u.mass_decimals)
             box.setSuffix(f" {u.mass}")
@@ -403,7 +372,8 @@ class ChecksPanel(QWidget):
         """Crew list and level-trim subjects for the committed design."""
         crew = design.loads.crew
         self.movers.blockSignals(True)
-        ticked = self.inputs.movers
+        cs = design.checks
+        ticked = cs.shift_crew
         self.movers.clear()
         for i, person in enumerate(crew):
             item = QListWidgetItem(f"{i + 1}. {person.name}")
@@ -413,7 +383,7 @@ class ChecksPanel(QWidget):
             self.movers.addItem(item)
         self.movers.blockSignals(False)
         self.trim_subject.blockSignals(True)
-        current = self.inputs.trim_subject
+        current = self.trim_choice
         self.trim_subject.clear()
         for i, person in enumerate(crew):
             self.trim_subject.addItem(f"crew: {person.name}", ("crew", i))
@@ -423,28 +393,60 @@ class ChecksPanel(QWidget):
         self.trim_subject.setCurrentIndex(max(index, 0))
         self.trim_subject.blockSignals(False)
 
-    def _on_inputs(self, *_args: object) -> None:
+    def _show_cases(self, design: Design) -> None:
+        """Set the case widgets from the design's saved check cases."""
+        cs = design.checks
+        if cs.shift_distance_m is not None:
+            self._distance = cs.shift_distance_m
+        self.mode_group.blockSignals(True)
+        button = (
+            self.mode_gunwale if cs.shift_to_gunwale
+            else self.mode_side if cs.shift_distance_m is None
+            else self.mode_distance
+        )
+        button.setChecked(True)
+        self.mode_group.blockSignals(False)
         u = self.options.units
+        for box, value in (
+            (self.distance_box, u.to_length(self._distance)),
+            (self.target_box, u.to_length(cs.target_gm_m)),
+            (self.boarding_box, u.to_mass(cs.boarding_mass_kg)),
+        ):
+            box.blockSignals(True)
+            box.setValue(value)
+            box.blockSignals(False)
+
+    def _on_inputs(self, *_args: object) -> None:
+        """The builder changed a case: save it in the design (one undo step)."""
+        u = self.options.units
+        design = self.document.committed
         ticked = tuple(
             i for i in range(self.movers.count())
             if self.movers.item(i).checkState() == Qt.CheckState.Checked
         )
-        mode = "gunwale" if self.mode_gunwale.isChecked() else "distance" if self.mode_distance.isChecked() else "side"
-        subject = self.trim_subject.currentData() or ("crew", 0)
-        self.inputs = CheckInputs(
-            movers=None if len(ticked) == self.movers.count() else ticked,
-            mode=mode,
-            distance=u.from_length(self.distance_box.value()),
-            boarding_mass=u.from_mass(self.boarding_box.value()),
-            target_gm=u.from_length(self.target_box.value()),
-            trim_subject=tuple(subject),  # type: ignore[arg-type]
+        self._distance = u.from_length(self.distance_box.value())
+        cases = replace(
+            design.checks,
+            shift_crew=None if len(ticked) == self.movers.count() else ticked,
+            shift_distance_m=self._distance if self.mode_distance.isChecked() else None,
+            shift_to_gunwale=self.mode_gunwale.isChecked(),
+            boarding_mass_kg=u.from_mass(self.boarding_box.value()),
+            target_gm_m=u.from_length(self.target_box.value()),
         )
-        self._timer.start()
+        subject = tuple(self.trim_subject.currentData() or ("crew", 0))
+        if cases != design.checks:
+            if not self.document.edit(replace(design, checks=cases), "Change the check cases"):
+                self._show_cases(design)  # refused: show what is saved
+            return  # the edit brings the new results
+        if subject != self.trim_choice:
+            self.trim_choice = subject  # type: ignore[assignment]
+            self._timer.start()
 
     # ------------------------------------------------------------ background runs
 
     def _on_design_changed(self) -> None:
         self._fill_choices(self.document.committed)
+        self._show_cases(self.document.committed)
         self._hide_arm()  # stale until the checks come back
         self._timer.start()
 
@@ -469,7 +471,7 @@ class ChecksPanel(QWidget):
         self._stop = threading.Event()
         self.state.setText("Working out the checks…")
         self._pool.start(
-            ChecksJob(self._generation, self.document.committed, self.inputs, self._relay, self._stop)
+            ChecksJob(self._generation, self.document.committed, self.trim_choice, self._relay, self._stop)
         )
 
     def _on_done(self, generation: int, result: object) -> None:
@@ -553,7 +555,7 @@ class ChecksPanel(QWidget):
         self.whatif.setRowCount(len(rows))
         for i, row in enumerate(rows):
             cells = [
-                row.case,
+                whatif_case(row, u),
                 u.mass_text(row.displacement, unit=False),
                 u.length_text(row.gm, unit=False),
                 u.length_text(row.min_freeboard, unit=False),
@@ -574,7 +576,7 @@ class ChecksPanel(QWidget):
         r = self.results
         if r is None or r.trim is None or r.trim.x_after is None:
             return
-        kind, _ = self.inputs.trim_subject
+        kind, _ = self.trim_choice
         design = aids.apply_level_trim(self.document.committed, r.trim, is_item=kind == "item")
         self.document.edit(design, f"Level trim: move {r.trim.what}")
 

@@ -440,11 +440,14 @@ class MainWindow(QMainWindow):
             path = path.with_suffix(".png")
         source = self.document.path.name if self.document.path else "not saved"
         design, units = self.document.committed, self.options.units.name
+        shown = self.checks.results  # the assessment on screen, when it is this design's
+        assessment = shown.assessment if shown is not None and shown.design == design else None
         try:
             write_via_temp(
                 path,
                 lambda tmp: plate.render_plate_file(
-                    design, tmp, paper=paper, dpi=dpi, units=units, source=source
+                    design, tmp, paper=paper, dpi=dpi, units=units, source=source,
+                    assessment=assessment,
                 ),
                 [self.document.path] if self.document.path else [],
             )

@@ -31,9 +31,10 @@ from PySide6.QtGui import (
     QPdfWriter,
 )
 
-from app.plate_content import PAPER_SIZES, PlateMarks, listed_stations, marks_from_checks
+from app.plate_content import PAPER_SIZES, PlateMarks, listed_stations, marks_from_assessment
 from app.plate_draw import FONT_FAMILY, MIN_TEXT_PT, PAPER, Canvas
 from app.plate_sheet import PlateLayout, Sheet
+from hydro.assess import Assessment, assess
 from hydro.design import Design, analyse
 from hydro.errors import HullwrightError
 from hydro.stability import Analysis
@@ -46,7 +47,7 @@ __all__ = [
     "PlateLayout",
     "PlateMarks",
     "listed_stations",
-    "marks_from_checks",
+    "marks_from_assessment",
     "paint_plate",
     "render_plate_file",
     "render_plate_image",
@@ -180,12 +181,15 @@ def render_plate_file(
     units: str = "metric",
     source: str = "",
     extras: PlateMarks | Mapping[str, object] | None = None,
+    assessment: Assessment | None = None,
 ) -> None:
     """Write the plate to ``path`` (.png at ``dpi`` or vector .pdf), atomically.
 
     The plate is rendered to a temporary file in the same folder, then moved over
     ``path``; a failed render leaves no file behind.  Without ``extras`` the plate
-    carries the builder's checks from :func:`marks_from_checks`.
+    carries the builder's checks of ``assessment`` (the design's one assessment, made
+    here when not given: the cases saved in ``design.checks``), worded as the app's
+    checks panel words them (:func:`marks_from_assessment`).
 
     Raises
     ------
@@ -199,11 +203,13 @@ def render_plate_file(
     if suffix not in (".png", ".pdf"):
         raise HullwrightError("the plate file must end in .png or .pdf")
     _paper(paper)
-    analysis = analyse(design)
+    if assessment is None or assessment.design != design:
+        assessment = assess(design, checks=extras is None)
+    analysis = assessment.analysis
     if not target.parent.is_dir():
         raise HullwrightError(f"folder {target.parent} does not exist")
     if extras is None:
-        extras = marks_from_checks(design, analysis)
+        extras = marks_from_assessment(assessment, system(units))
     # Qt creates the file itself, so it gets the usual permissions (umask applied)
     tmp = str(target.parent / f".{target.stem}-{secrets.token_hex(6)}{suffix}")
     try:

@@ -10,19 +10,18 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hydro import aids, heel_checks
-from hydro.design import Design
-from hydro.errors import HullwrightError
+from hydro.assess import Assessment
 from hydro.hull import Stations
 from hydro.stability import Analysis
 from hydro.units import UnitSystem
+from hydro.wording import heel_title, heel_verdict_text, list_text
 
 __all__ = [
     "PAPER_SIZES",
     "PlateMarks",
     "figure_rows",
     "listed_stations",
-    "marks_from_checks",
+    "marks_from_assessment",
     "offset_columns",
 ]
 
@@ -64,15 +63,19 @@ class PlateMarks:
     Attributes
     ----------
     crew_shift_heel_deg : static heel when the crew moves to one side (degrees)
-    crew_shift_verdict : one line for the reader ("gunwale stays 60 mm clear")
+    crew_shift_verdict : what happens, with its margins, as the checks panel words it
     crew_shift_arm : heeling arm at zero heel (m); the arm curve arm * cos(heel) is drawn
     level_trim_seats : (crew name, seat x in metres) pairs that trim the boat level
+    crew_shift_title, boarding_title, boarding_verdict : the cases as the panel words them
     """
 
     crew_shift_heel_deg: float | None = None
     crew_shift_verdict: str = ""
     crew_shift_arm: float | None = None
     level_trim_seats: tuple[tuple[str, float], ...] = ()
+    crew_shift_title: str = ""
+    boarding_title: str = ""
+    boarding_verdict: str = ""
 
     @classmethod
     def from_any(cls, extras: PlateMarks | Mapping[str, object] | None) -> PlateMarks:
@@ -255,36 +258,39 @@ def figure_rows(a: Analysis, u: UnitSystem, marks: PlateMarks) -> list[tuple[str
         ("Least freeboard", f"{L(h.min_freeboard)} at x {L(h.min_freeboard_x)}"),
         ("KB / BM", f"{L(h.kb, False)} / {L(h.bm)}"),
         ("KM / KG", f"{L(h.km, False)} / {L(h.kg)}"),
-        ("GM", f"{L(h.gm)}  ({gm_word})"),
+        ("GM (upright)", f"{L(h.gm)}  ({gm_word})"),
     ]
     if h.fsc > 0:
         rows.append(("GM solid / free-surface corr.", f"{L(h.gm_solid, False)} / {L(h.fsc)}"))
     if c is not None:
-        last = float(c.heel_deg[-1])
+        last = c.last_deg
         gw = c.gunwale_immersion_deg
+        rows.insert(1, ("Floating position", list_text(c.list_deg)))
         rows.append(
             (
                 "Heel at gunwale immersion",
                 f"not reached by {last:.0f}°"
                 if gw is None
-                else ("upright: floods" if gw <= 0 else deg_text(gw)),
+                else ("upright: floods" if abs(gw) <= 0 else deg_text(abs(gw))),
             )
         )
-        rows.append(("Max GZ", f"{L(c.max_gz)} at {c.max_gz_deg:.0f}°"))
+        rows.append(("Max GZ", f"{L(c.max_gz)} at {abs(c.max_gz_deg):.0f}°"))
         if c.loll_deg is not None:
-            rows.append(("Angle of loll", deg_text(c.loll_deg)))
-        start = c.loll_deg or 0.0
-        rng = (
-            f"{start:.0f}° to beyond {last:.0f}°"
-            if c.avs_deg is None
-            else ("none" if c.avs_deg <= start else f"{start:.0f}° to {c.avs_deg:.1f}°")
-        )
+            rows.append(("Angle of loll", deg_text(abs(c.loll_deg))))
+        if c.list_deg is None:
+            rng = "none: it capsizes"
+        else:
+            start = abs(c.list_deg)
+            rng = (
+                f"{start:.0f}° to beyond {last:.0f}°"
+                if c.range_open
+                else f"{start:.0f}° to {start + c.range_deg:.1f}° ({c.range_deg:.1f}°)"
+            )
         rows.append(("Range of positive GZ", rng))
-    if marks.crew_shift_heel_deg is not None:
-        verdict = f" - {marks.crew_shift_verdict}" if marks.crew_shift_verdict else ""
-        rows.append(("Crew shift heel", f"{deg_text(marks.crew_shift_heel_deg)}{verdict}"))
-    elif marks.crew_shift_verdict:
-        rows.append(("Crew shift", marks.crew_shift_verdict))
+    if marks.crew_shift_verdict:
+        rows.append((marks.crew_shift_title or "Crew shift", marks.crew_shift_verdict))
+    if marks.boarding_verdict:
+        rows.append((marks.boarding_title or "Boarding", marks.boarding_verdict))
     for name, x in marks.level_trim_seats:
         rows.append((f"Level trim: {name}", f"seat at x {L(x)}"))
     return rows
@@ -311,25 +317,20 @@ def paper_name(w_mm: float, h_mm: float) -> str:
     return f"{w_mm:.0f} × {h_mm:.0f} mm"
 
 
-def marks_from_checks(design: Design, analysis: Analysis) -> PlateMarks:
-    """The builder's checks the plate carries: all crew to the side at seat height
-    (offset-load test) and the seat that trims the boat level, for the crew member who
-    has to move least.  Nothing when the boat does not float or has no crew."""
-    if analysis.hydrostatics is None or analysis.curve is None or not design.loads.crew:
-        return PlateMarks()
-    try:
-        shift = heel_checks.crew_shift(design, analysis=analysis)
-        trims = [aids.level_trim(design, crew_index=i) for i in range(len(design.loads.crew))]
-    except HullwrightError:
-        return PlateMarks()
-    verdict = {
-        "holds": "holds",
-        "floods": "the gunwale goes under first",
-        "capsizes": "capsizes",
-    }[shift.verdict]
-    movable = [t for t in trims if t.x_after is not None]
-    seats: tuple[tuple[str, float], ...] = ()
-    if movable and abs(analysis.hydrostatics.trim_deg) > 0.05:
-        best = min(movable, key=lambda t: abs(t.x_after - t.x_before))  # type: ignore[operator]
-        seats = ((best.what, float(best.x_after)),)  # type: ignore[arg-type]
-    return PlateMarks(shift.static_heel_deg, f"all crew to the side: {verdict}", shift.arm0, seats)
+def marks_from_assessment(assessment: Assessment, u: UnitSystem) -> PlateMarks:
+    """The builder's checks the plate carries, worded as the checks panel words them:
+    the saved crew-shift and boarding cases with their margins, and the seat that trims
+    the boat level for the crew member who has to move least.  Nothing when the boat
+    does not float or capsizes as loaded."""
+    shift, board = assessment.shift, assessment.boarding
+    best = assessment.best_trim()
+    seats = () if best is None or best.x_after is None else ((best.what, float(best.x_after)),)
+    return PlateMarks(
+        None if shift is None else shift.static_heel_deg,
+        "" if shift is None else heel_verdict_text(shift, u),
+        None if shift is None else shift.arm0,
+        seats,
+        "" if shift is None else heel_title(shift, u),
+        "" if board is None else heel_title(board, u),
+        "" if board is None else heel_verdict_text(board, u),
+    )

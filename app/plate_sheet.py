@@ -50,7 +50,8 @@ from app.plate_draw import (
 )
 from hydro.design import Design
 from hydro.safety import CAUTIONS
-from hydro.stability import Analysis
+from hydro.stability import Analysis, Status
+from hydro.wording import list_text, status_sentence
 from hydro.units import UnitSystem
 
 __all__ = ["PlateLayout", "Sheet"]
@@ -753,16 +754,16 @@ class Sheet:
     # figures --------------------------------------------------------------------------
     def _figures_height(self, w: float, size: float) -> float:
         lh = self.c.line_height(size)
-        msg = self.c.wrap(self.a.message, size, w, bold=True)
+        msg = self.c.wrap(status_sentence(self.a, self.u), size, w, bold=True)
         return self.head_h + lh * (len(msg) + 0.3 + len(figure_rows(self.a, self.u, self.marks)))
 
     def paint_figures(self, x: float, y: float, w: float, h: float, size: float) -> None:
         self.panel("figures", x, y, w, h)
         c = self.c
-        top = self.heading(x, y, w, "Figures", "loaded, upright, free to trim")
+        top = self.heading(x, y, w, "Figures", "loaded, free to trim; GM upright")
         lh = c.line_height(size)
-        color = HULL if self.a.status == "ok" else MARK
-        for ln in c.wrap(self.a.message, size, w, bold=True):
+        color = HULL if self.a.status is Status.OK else MARK
+        for ln in c.wrap(status_sentence(self.a, self.u), size, w, bold=True):
             c.text(x, top, w, lh, ln, size, bold=True, color=color)
             top += lh
         top += lh * 0.3
@@ -800,6 +801,8 @@ class Sheet:
         gz = u.to_length(1.0) * curve.gz
         finite = np.isfinite(gz)
         hmax = float(heel[-1])
+        hmin = min(float(heel[0]), 0.0)  # both sides when G is off the centreline
+        open_boat = self.design.settings.open_boat
         ymax = float(np.nanmax(gz)) if finite.any() else 1.0
         ymin = float(np.nanmin(gz)) if finite.any() else 0.0
         if m.crew_shift_arm is not None:  # show the whole heeling-arm curve
@@ -839,33 +842,41 @@ class Sheet:
         py0, py1 = top + 1.0, y + h - lh * (2.1 + len(legend))
 
         def PX(a: float) -> float:
-            return px0 + a / hmax * (px1 - px0)
+            return px0 + (a - hmin) / (hmax - hmin) * (px1 - px0)
 
         def PY(v: float) -> float:
             return py1 - (v - y_lo) / (y_hi - y_lo) * (py1 - py0)
 
         labels = Labels()
         gw = curve.gunwale_immersion_deg
-        if gw is not None and gw < hmax:
-            c.box(PX(gw), py0, px1 - PX(gw), py1 - py0, fill=SHADE)
-        a = 0.0
+        beyond = gw is not None and hmin < gw < hmax and open_boat
+        if beyond and gw is not None:  # an open boat fills past the gunwale (a sealed one not)
+            if gw > 0:
+                c.box(PX(gw), py0, px1 - PX(gw), py1 - py0, fill=SHADE)
+            else:
+                c.box(px0, py0, PX(gw) - px0, py1 - py0, fill=SHADE)
+        tick = 10.0 if hmax - hmin <= 90 else 20.0 if hmax - hmin <= 180 else 30.0
+        a = math.ceil(hmin / tick) * tick
         while a <= hmax + 1e-9:
             c.segment(PX(a), py0, PX(a), py1, 0.12, RULE)
             c.text(PX(a) - 6, py1 + 0.6, 12, lh, f"{a:g}", t.small, align=CENTRE)
-            a += 10.0 if hmax <= 90 else 20.0
+            a += tick
+        if hmin < 0:
+            c.segment(PX(0.0), py0, PX(0.0), py1, 0.3, INK)
         for v in ticks:
             zero = abs(v) < 1e-12
             c.segment(px0, PY(v), px1, PY(v), 0.3 if zero else 0.12, INK if zero else RULE)
             c.text(x, PY(v) - lh / 2, ylabel_w, lh, f"{v:g}", t.small, align=RIGHT)
         c.segment(px0, py0, px0, py1, 0.3)
-        c.text(px1 - 40, py1 + 0.6 + lh, 40, lh, "heel (°)", t.small, align=RIGHT, color=MUTED)
+        axis = "heel (°, + to starboard)" if hmin < 0 else "heel (°)"
+        c.text(px1 - 50, py1 + 0.6 + lh, 50, lh, axis, t.small, align=RIGHT, color=MUTED)
         c.text(px0 + 1.0, py0, 30, lh, f"GZ ({u.length})", t.small, color=MUTED)
         labels.avoid(QRectF(px0 + 1.0, py0, c.text_width(f"GZ ({u.length})", t.small), lh))
         ws = u.to_length(1.0) * curve.wall_sided
         keep = np.isfinite(ws) & (ws <= y_hi) & (ws >= y_lo)
-        if keep.any():
-            last = int(np.flatnonzero(keep)[-1]) + 1
-            wx, wy = [PX(v) for v in heel[:last]], [PY(v) for v in ws[:last]]
+        shown = np.flatnonzero(keep)
+        for run in np.split(shown, np.flatnonzero(np.diff(shown) > 1) + 1) if shown.size else ():
+            wx, wy = [PX(v) for v in heel[run]], [PY(v) for v in ws[run]]
             c.polyline(wx, wy, 0.25, MUTED, Qt.PenStyle.DashLine)
             labels.avoid(points=dense(wx, wy))
         idx = np.flatnonzero(finite)
@@ -879,7 +890,7 @@ class Sheet:
             ax_, ay_ = [PX(v) for v in heel], [PY(v) for v in arm]
             c.polyline(ax_, ay_, 0.35, MARK)
             labels.avoid(points=dense(ax_, ay_))
-        if m.crew_shift_heel_deg is not None and 0 <= m.crew_shift_heel_deg <= hmax:
+        if m.crew_shift_heel_deg is not None and hmin <= m.crew_shift_heel_deg <= hmax:
             hx = PX(m.crew_shift_heel_deg)
             c.segment(hx, py0, hx, py1, 0.35, MARK, Qt.PenStyle.DashDotLine)
             labels.avoid(points=[(hx, py0 + k) for k in np.arange(0.0, py1 - py0, 0.8)])
@@ -912,20 +923,29 @@ class Sheet:
             c.segment(PX(gw), py0, PX(gw), py1, 0.35, WATER, Qt.PenStyle.DashLine)
             labels.avoid(points=[(PX(gw), py0 + k) for k in np.arange(0.0, py1 - py0, 0.8)])
         if finite.any():
-            mx, my = PX(curve.max_gz_deg), PY(u.to_length(curve.max_gz))
+            mx, my = PX(curve.max_gz_deg), PY(u.to_length(curve.side * curve.max_gz))
             c.dot(mx, my, 0.9, HULL)
             labels.avoid(QRectF(mx - 1, my - 1, 2, 2))
             label(
-                f"max {u.length_text(curve.max_gz)} at {curve.max_gz_deg:.0f}°",
+                f"max {u.length_text(curve.max_gz)} at {abs(curve.max_gz_deg):.0f}°",
                 mx,
                 my,
                 HULL,
                 ["above-right", "above", "above-left", "below-right"],
             )
-        if curve.avs_deg is not None and 0 < curve.avs_deg <= hmax:
+        if curve.list_deg is not None and abs(curve.list_deg) >= 0.05:
+            c.dot(PX(curve.list_deg), PY(0.0), 0.9, WATER)
+            label(
+                list_text(curve.list_deg),
+                PX(curve.list_deg),
+                PY(0.0),
+                WATER,
+                ["above-right", "above-left", "below-right", "below-left"],
+            )
+        if curve.avs_deg is not None and hmin <= curve.avs_deg <= hmax and curve.avs_deg != 0:
             c.dot(PX(curve.avs_deg), PY(0.0), 0.9, MARK)
             label(
-                f"GZ = 0 at {curve.avs_deg:.0f}°",
+                f"GZ = 0 at {abs(curve.avs_deg):.0f}°",
                 PX(curve.avs_deg),
                 PY(0.0),
                 MARK,
@@ -933,15 +953,15 @@ class Sheet:
             )
         if gw is not None:
             label(
-                f"gunwale under at {gw:.1f}°",
+                f"{'gunwale' if open_boat else 'deck edge'} under at {abs(gw):.1f}°",
                 PX(gw),
                 0.0,
                 WATER,
                 ["top-left", "bottom-left", "top-right", "bottom-right"],
             )
-            if gw < hmax:
-                note = "open boat floods beyond"
-                label(note, PX(gw), 0.0, MUTED, ["top-right", "bottom-right"])
+            if beyond:
+                spots = ["top-right", "bottom-right"] if gw > 0 else ["top-left", "bottom-left"]
+                label("open boat floods beyond", PX(gw), 0.0, MUTED, spots)
         ly = y + h - lh * len(legend)
         for k, (col, style, lw, text) in enumerate(legend):
             yy = ly + k * lh + lh / 2

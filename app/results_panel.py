@@ -1,10 +1,9 @@
 """The live readout: what the loaded boat does, in figures, in words and as a GZ curve.
 
-GM state (common practice, no source):
-
-- unstable: GM <= 0 (the boat lolls over or capsizes);
-- marginal ("tender"): 0 < GM < max(50 mm, 4 % of the waterline beam);
-- stable: otherwise.
+The status line and the badge show the one status decided in :mod:`hydro.assess` (never
+a green badge beside a red status); the words come from :mod:`hydro.wording`.  GM state
+(common practice, no source): unstable GM <= 0; marginal ("tender") 0 < GM < max(50 mm,
+4 % of the waterline beam) or a list beyond 5 degrees; stable otherwise.
 
 The figures keep a fixed number of decimals per quantity and sit right-aligned in a
 fixed-pitch font, so the table does not jitter while a handle is dragged.
@@ -21,6 +20,9 @@ from PySide6.QtGui import QFontMetrics
 from PySide6.QtWidgets import QGridLayout, QLabel, QVBoxLayout, QWidget
 
 from hydro import Analysis
+from hydro.assess import GmState, state_of
+from hydro.stability import Status
+from hydro.wording import badge_words, list_cell, status_sentence
 from hydro.safety import SHORT_CAUTION
 from hydro.sections import build_section_table
 
@@ -30,36 +32,15 @@ from app.gz_plot import LEGEND_HTML, GzPlot
 from hydro.units import UnitSystem
 from app.view_options import ViewOptions
 
-__all__ = ["ResultsPanel", "gm_state", "MARGINAL_GM_M", "MARGINAL_GM_BEAM_FRACTION"]
-
-#: Below this GM (m) a positive-GM boat is called marginal, whatever its beam.
-MARGINAL_GM_M = 0.05
-#: ... or below this fraction of the waterline beam, if that is larger.
-MARGINAL_GM_BEAM_FRACTION = 0.04
-
-_STATE_WORDS = {
-    "stable": ("STABLE", "comes back upright"),
-    "marginal": ("TENDER", "positive but small GM: feels tippy, keep weight low and central"),
-    "unstable": ("UNSTABLE", "GM at or below zero: it will lean over or capsize"),
-    "none": ("NO FIGURES", "the boat does not float with this load"),
-}
+__all__ = ["ResultsPanel"]
 
 _STATE_TIP = (
-    "GM state (common practice, no source):\n"
-    "UNSTABLE: GM at or below zero.\n"
+    "The status decides first: a boat that floods, capsizes, sinks or lolls is red.\n"
+    "Otherwise the upright GM (common practice, no source):\n"
     "TENDER (marginal): GM above zero but below 50 mm or 4 % of the waterline beam, "
-    "whichever is larger.\n"
+    "whichever is larger, or a list beyond 5°.\n"
     "STABLE: anything more."
 )
-
-
-def gm_state(gm: float, waterline_beam: float) -> str:
-    """"stable", "marginal" or "unstable" for a metacentric height (m), see module docs."""
-    if not math.isfinite(gm) or gm <= 0:
-        return "unstable"
-    if gm < max(MARGINAL_GM_M, MARGINAL_GM_BEAM_FRACTION * waterline_beam):
-        return "marginal"
-    return "stable"
 
 
 @dataclass(frozen=True)
@@ -86,10 +67,7 @@ def _range(a: Analysis) -> str:
     c = a.curve
     if c is None:
         return "—"
-    start = c.loll_deg if c.loll_deg is not None else 0.0
-    if c.avs_deg is None:
-        return f"≥{c.heel_deg[-1] - start:.1f}"
-    return f"{max(c.avs_deg - start, 0.0):.1f}"
+    return f"{'≥' if c.range_open else ''}{c.range_deg:.1f}"
 
 
 _LEN = lambda u: u.length  # noqa: E731
@@ -108,14 +86,20 @@ ROWS: tuple[_Row, ...] = (
     _Row("bm", "BM", _LEN, _length(lambda a: a.hydrostatics.bm), "Metacentre above the centre of buoyancy"),
     _Row("km", "KM", _LEN, _length(lambda a: a.hydrostatics.km), "Metacentre above the keel"),
     _Row("kg", "KG", _LEN, _length(lambda a: a.weights.kg), "Centre of gravity above the keel"),
-    _Row("gm", "GM", _LEN, _length(lambda a: a.hydrostatics.gm),
-         "Metacentric height: KM - KG, less any loose-water correction"),
+    _Row("gm", "GM (upright)", _LEN, _length(lambda a: a.hydrostatics.gm),
+         "Upright metacentric height: KM - KG, less any loose-water correction"),
+    _Row("list", "List", _DEG, lambda a, u: list_cell(a.curve.list_deg),
+         "Steady heel as loaded, from a centre of gravity off the centreline "
+         "(stbd = starboard down)"),
     _Row("gunwale", "Gunwale awash at", _DEG, lambda a, u: _angle(a.curve.gunwale_immersion_deg),
          "Heel at which the low gunwale meets the water: an open boat starts to fill"),
-    _Row("max_gz", "Max GZ", _LEN, _length(lambda a: a.curve.max_gz), "Largest righting arm"),
-    _Row("max_gz_deg", "  at heel", _DEG, lambda a, u: _angle(a.curve.max_gz_deg), "Heel of the largest righting arm"),
+    _Row("max_gz", "Max GZ", _LEN, _length(lambda a: a.curve.max_gz),
+         "Largest righting arm, towards the side the boat lists to"),
+    _Row("max_gz_deg", "  at heel", _DEG, lambda a, u: _angle(abs(a.curve.max_gz_deg)),
+         "Heel of the largest righting arm"),
     _Row("range", "Range of stability", _DEG, lambda a, u: _range(a),
-         "Heel span over which GZ stays positive (≥: still positive at the last angle)"),
+         "Heel span from the list over which GZ stays positive "
+         "(≥: still positive at the last angle)"),
 )
 
 
@@ -222,10 +206,9 @@ class ResultsPanel(QWidget):
         units = self.options.units
         for row in ROWS:
             self.values[row.key].setText(_text_or_dash(row, analysis, units))
-        hs = analysis.hydrostatics
-        state = "none" if hs is None else gm_state(hs.gm, hs.bwl)
-        self._show_state(state)
-        self._show_status(analysis)
+        state = state_of(analysis)
+        self._show_state(analysis, state)
+        self._show_status(analysis, state)
         self.gz_plot.show_curve(
             analysis.curve,
             steady=self.document.analysis_is_rough,
@@ -243,19 +226,20 @@ class ResultsPanel(QWidget):
         """The design cannot be analysed: say why, blank the figures."""
         for value in self.values.values():
             value.setText("—")
-        self._set_status(f"Cannot analyse: {message}", "unstable")
-        self._show_state("none")
+        self._set_status(f"No result: {message}", "unstable")
+        self._show_state(None, GmState.NONE)
         self.gz_plot.show_curve(None)
         self.quality.setText("")
 
-    def _show_status(self, analysis: Analysis) -> None:
-        text = analysis.message
-        if analysis.status == "sinks":
+    def _show_status(self, analysis: Analysis, state: GmState) -> None:
+        text = status_sentence(analysis, self.options.units)
+        if analysis.status is Status.SINKS:
             capacity = self._closed_hull_capacity()
             if capacity is not None:
                 over = self.options.units.mass_text(analysis.weights.mass - capacity)
                 text += f" Too heavy by at least {over}."
-        self._set_status(text, "stable" if analysis.status == "ok" else "unstable")
+        tone = "unstable" if state in (GmState.UNSTABLE, GmState.NONE) else state.value
+        self._set_status(text, tone)
 
     def _closed_hull_capacity(self) -> float | None:
         """Mass (kg) the whole closed hull displaces when pushed under."""
@@ -275,14 +259,19 @@ class ResultsPanel(QWidget):
                 f"background: {bg}; color: {fg}; border-radius: 4px; padding: 4px 6px;"
             )
 
-    def _show_state(self, state: str) -> None:
-        """The GM state badge (rich text is slow to lay out: only redone on a change)."""
-        if self.state.property("gm_state") == state:
+    def _show_state(self, analysis: Analysis | None, state: GmState) -> None:
+        """The badge (rich text is slow to lay out: only redone on a change)."""
+        if analysis is None:
+            word, meaning = "NO RESULT", "the design could not be analysed"
+        else:
+            word, meaning = badge_words(analysis, state.value)
+        key = f"{state.value}|{word}|{meaning}"
+        if self.state.property("badge") == key:
             return
-        word, meaning = _STATE_WORDS[state]
-        bg, fg = style.STATE_COLOURS[state]
-        glyph = style.STATE_GLYPHS[state]
-        self.state.setProperty("gm_state", state)
+        bg, fg = style.STATE_COLOURS[state.value]
+        glyph = style.STATE_GLYPHS[state.value]
+        self.state.setProperty("badge", key)
+        self.state.setProperty("gm_state", state.value)
         self.state.setText(
             f"<span style='font-size: 14pt; font-weight: 600'>{glyph} {word}</span>"
             f"<br><span style='font-size: 9pt'>{meaning}</span>"

@@ -15,11 +15,17 @@ from hydro.units import METRIC, UnitSystem
 
 if TYPE_CHECKING:  # pragma: no cover - types only, no import cycle at run time
     from hydro.heel_checks import HeelCheck
+    from hydro.aids import BeamResult, TrimResult
     from hydro.stability import Analysis
-    from hydro.whatif import SensitivityRow
+    from hydro.whatif import SensitivityRow, SwampResult
 
 __all__ = [
     "angle_text",
+    "beam_text",
+    "swamp_text",
+    "trim_text",
+    "badge_words",
+    "list_cell",
     "heel_margins",
     "heel_sentence",
     "heel_title",
@@ -169,9 +175,11 @@ def heel_verdict_text(check: HeelCheck, u: UnitSystem = METRIC) -> str:
     from hydro.heel_checks import Verdict
 
     if check.verdict is Verdict.CAPSIZES or check.static_heel_deg is None:
+        if check.arm_share is None or not math.isfinite(check.arm_share):
+            return "capsizes: no heel balances the heeling arm."
         return (
-            f"no heel balances the heeling arm ({share_text(check.arm_share)}): "
-            "the boat capsizes."
+            f"capsizes: the heeling arm is {100 * check.arm_share:.0f} % of the boat's best "
+            "righting arm."
         )
     heel = f"heels to {angle_text(check.static_heel_deg, 1)} to {side_word(check.static_heel_deg)}"
     if check.verdict is Verdict.FLOODS:
@@ -196,3 +204,70 @@ def whatif_case(row: SensitivityRow, u: UnitSystem = METRIC) -> str:
     if row.kind == "bilge water" and row.amount is not None:
         return f"{u.length_text(row.amount)} bilge water"
     return row.kind
+
+
+def badge_words(a: Analysis, state: str) -> tuple[str, str]:
+    """The readout's badge: a word and what it means, for the status and GM state
+    (``state`` from :func:`hydro.assess.state_of`: stable, marginal, unstable, none)."""
+    from hydro.stability import Status
+
+    c = a.curve
+    listed = c is not None and c.list_deg is not None and abs(c.list_deg) >= UPRIGHT_DEG
+    if a.status is Status.SINKS or state == "none":
+        return "SINKS", "the boat does not float with this load"
+    if a.status is Status.CAPSIZES:
+        return "CAPSIZES", "the righting arm never brings it back: it rolls over"
+    if a.status is Status.FLOODS:
+        return "FLOODS", "the gunwale is under water as it floats"
+    if a.status is Status.UNSTABLE:
+        return "UNSTABLE", "upright GM at or below zero: it lolls over or capsizes"
+    if state == "marginal":
+        if listed:
+            assert c is not None and c.list_deg is not None
+            other = side_word(-c.list_deg)
+            return "TENDER", f"{list_text(c.list_deg)} as loaded: move weight to {other}"
+        return "TENDER", "positive but small GM: feels tippy, keep weight low and central"
+    if listed:
+        assert c is not None and c.list_deg is not None
+        return "STABLE", f"comes back to its list ({list_text(c.list_deg)})"
+    return "STABLE", "comes back upright"
+
+
+def list_cell(list_deg: float | None) -> str:
+    """A short list for a table cell: ``0.0``, ``4.2 stbd``, ``3.0 port``, ``capsizes``."""
+    if list_deg is None:
+        return "capsizes"
+    if abs(list_deg) < UPRIGHT_DEG:
+        return "0.0"
+    return f"{abs(list_deg):.1f} {'stbd' if list_deg > 0 else 'port'}"
+
+
+def trim_text(t: TrimResult, u: UnitSystem = METRIC) -> str:
+    """Where to seat someone (or put an item) so the boat floats level."""
+    if t.x_after is None:
+        return f"Moving {t.what} alone cannot float the boat level (trim now {t.trim_before_deg:+.2f}°)."
+    return (
+        f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
+        f"trim {t.trim_after_deg:+.2f}° (now {t.trim_before_deg:+.2f}°), freeboard aft "
+        f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
+    )
+
+
+def beam_text(b: BeamResult, u: UnitSystem = METRIC) -> str:
+    """The beam aid's answer."""
+    if b.factor is None:
+        return f"No beam between 0.3 and 3 times the present one gives GM {u.length_text(b.target_gm)}."
+    return (
+        f"GM reaches {u.length_text(b.gm_after)} at a beam of {u.length_text(b.beam_after)} "
+        f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives {u.length_text(b.gm_before)}."
+    )
+
+
+def swamp_text(r: SwampResult, u: UnitSystem = METRIC) -> str:
+    """Reserve buoyancy and the swamped hull, pointing to life jackets."""
+    head = f"Reserve buoyancy {u.mass_text(r.reserve_mass)} ({100 * r.reserve_fraction:.0f} % of the hull)."
+    if r.floats_swamped is None:
+        return head + " Closed hull: it cannot fill while its deck and seams hold. Still wear life jackets."
+    if r.floats_swamped:
+        return head + " Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
+    return head + " Swamped, the hull sinks: the crew's life jackets are the only flotation - wear them."

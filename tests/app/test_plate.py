@@ -371,24 +371,29 @@ def test_cli_rejects_bad_options_with_usage(args, out_dir, capsys):
 
 
 def test_plate_marks_come_from_the_builders_checks():
-    """The plate's crew-shift and level-trim marks are the hydro checks' own results."""
-    from app.plate import marks_from_checks
-    from hydro import analyse, load_design
+    """The plate's crew-shift and level-trim marks are the assessment's own results,
+    worded by the same formatter as the checks panel."""
+    from app.plate import marks_from_assessment
+    from hydro import load_design
     from hydro.aids import level_trim
+    from hydro.assess import assess
     from hydro.heel_checks import crew_shift
+    from hydro.units import METRIC
+    from hydro.wording import heel_verdict_text
 
     raft = load_design(SAMPLES / "drift-lab-raft.json")
-    analysis = analyse(raft)
-    marks = marks_from_checks(raft, analysis)
-    shift = crew_shift(raft, analysis=analysis)
+    result = assess(raft)
+    marks = marks_from_assessment(result, METRIC)
+    shift = crew_shift(raft, analysis=result.analysis)
     assert marks.crew_shift_heel_deg == pytest.approx(shift.static_heel_deg)
     assert marks.crew_shift_arm == pytest.approx(shift.arm0)
-    assert shift.verdict in marks.crew_shift_verdict
+    assert marks.crew_shift_verdict == heel_verdict_text(result.shift, METRIC)
+    assert "% of the boat's best righting arm" in marks.crew_shift_verdict
     (name, x), = marks.level_trim_seats
     assert x == pytest.approx(next(t.x_after for t in (level_trim(raft, i) for i in range(2)) if t.what == name))
     punt = load_design(SAMPLES / "heron-punt.json")
-    punt_analysis = analyse(punt)
-    capsize = marks_from_checks(punt, punt_analysis)
-    punt_shift = crew_shift(punt, analysis=punt_analysis)
+    capsize = marks_from_assessment(assess(punt), METRIC)
+    punt_shift = crew_shift(punt)
     assert punt_shift.static_heel_deg is None  # the case the plate must word without a heel
-    assert capsize.crew_shift_heel_deg is None and punt_shift.verdict in capsize.crew_shift_verdict
+    assert capsize.crew_shift_heel_deg is None and "capsizes" in capsize.crew_shift_verdict
+
