@@ -34,9 +34,11 @@ from hydro.outputs import write_via_temp
 
 from app import style
 from app.document import HullDocument, starter_design
+from app.build_view import BuildView
 from app.checks_panel import ChecksPanel
 from app.dimensions_panel import DimensionsPanel
 from app.load_editor import LoadEditor
+from app.pack_dialog import PackDialog
 from app.plan_view import PlanView
 from app.plate_dialog import PlateDialog
 from app.point_entry import PointEntry
@@ -149,6 +151,9 @@ class MainWindow(QMainWindow):
         self.checks_dock = self.add_panel(self.checks, "Checks")
         self.dimensions = DimensionsPanel(document, self.options)
         self.dimensions_dock = self.add_panel(self.dimensions, "Dimensions")
+        self.build_view = BuildView(document, self.options, settings)
+        self.build_view.exportRequested.connect(self.export_pack)
+        self.build_dock = self.add_panel(self.build_view, "Build")
         self.loads_dock.raise_()
 
         document.notice.connect(self._on_notice)
@@ -214,6 +219,10 @@ class MainWindow(QMainWindow):
         self.plate_action = self._action(
             "Export &plate…", self.export_plate, "Ctrl+E", "plate", "Write the print plate for the build team"
         )
+        self.pack_action = self._action(
+            "Export &build pack…", self.export_pack, tip="Flat panels, frames, sheet layout, "
+            "materials list and full-size templates as a PDF"
+        )
         self.quit_action = self._action("&Quit", self.close, keys.Quit)
         self.undo_action = self.document.undo_stack.createUndoAction(self, "&Undo")
         self.undo_action.setShortcut(QKeySequence(keys.Undo))
@@ -252,7 +261,9 @@ class MainWindow(QMainWindow):
             label = path.stem.replace("-", " ").capitalize()
             self.samples_menu.addAction(label, lambda p=path: self.open_sample(p))
         file_menu.addSeparator()
-        file_menu.addActions([self.save_action, self.save_as_action, self.plate_action])
+        file_menu.addActions(
+            [self.save_action, self.save_as_action, self.plate_action, self.pack_action]
+        )
         file_menu.addSeparator()
         file_menu.addAction(self.quit_action)
         edit_menu = bar.addMenu("&Edit")
@@ -455,6 +466,33 @@ class MainWindow(QMainWindow):
             self.show_message("Could not write the plate", _words(e))
             return
         self.statusBar().showMessage(f"Plate written to {path}", 8000)
+
+    def export_pack(self) -> None:
+        """Ask for a file and paper, then write the build pack PDF."""
+        folder = self.document.path.parent if self.document.path else Path.home()
+        suggested = folder / f"{_file_stem(self.document.committed.name)}-build-pack.pdf"
+        dialog = PackDialog(self, suggested)
+        dialog.accepted.connect(lambda: self.write_pack(*dialog.choice()))
+        dialog.open()
+
+    def write_pack(self, path: Path, paper: str) -> bool:
+        """Write the build pack of the committed design with the build view's settings."""
+        from app.pack_pages import write_pack_pdf
+        from hydro.build_pack import build_pack
+
+        if path.suffix.lower() != ".pdf":
+            path = path.with_suffix(".pdf")
+        source = self.document.path.name if self.document.path else "not saved"
+        design = self.document.committed
+        inputs = [str(self.document.path)] if self.document.path else []
+        try:
+            pack = build_pack(design, self.build_view.pack_settings())
+            write_pack_pdf(path, design, pack, paper, self.options.units.name, source, inputs)
+        except Exception as e:  # the boundary: the engine, a refused path, the disk
+            self.show_message("Could not write the build pack", _words(e))
+            return False
+        self.statusBar().showMessage(f"Build pack written to {path}", 8000)
+        return True
 
     # ------------------------------------------------------------ recovery
 
