@@ -31,11 +31,12 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from app.plate import PAPER_SIZES, marks_from_checks, paint_plate
+from app.plate import PAPER_SIZES, marks_from_assessment, paint_plate
 from app.plate_content import IMPERIAL_SCALES, scale_label
 from app.plate_draw import CENTRE, LEFT, RIGHT, Canvas
 from hydro.build_pack import BuildPack, PieceJob
-from hydro.design import Design, analyse
+from hydro.assess import assess
+from hydro.design import Design
 from hydro.errors import HullwrightError
 from hydro.outputs import write_via_temp
 from hydro.panels import FlatPiece, offset_rows
@@ -770,9 +771,9 @@ class _Writer:
     def _page(self, painter: QPainter, rect: QRectF, dpi: float, spec: PageSpec, n: int,
               first_sheet: int) -> int:
         if spec.kind == "plate":
-            analysis = analyse(self.design)
-            paint_plate(painter, rect, dpi, self.design, analysis, self.u, self.source,
-                        marks_from_checks(self.design, analysis))
+            result = assess(self.design)
+            paint_plate(painter, rect, dpi, self.design, result.analysis, self.u, self.source,
+                        marks_from_assessment(result, self.u))
             return first_sheet
         painter.save()
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
