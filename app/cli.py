@@ -586,18 +586,27 @@ def _pack(args: argparse.Namespace) -> None:
     settings = _pack_settings(args)
     design = load_design(args.design)
     pack = build_pack(design, settings)
+    said: list[str] = []
     if args.output:
         _headless_qt()
         from app.pack_pages import write_pack_pdf
 
-        write_pack_pdf(args.output, design, pack, paper, args.units, Path(args.design).name,
-                       [args.design])
+        pages = write_pack_pdf(args.output, design, pack, paper, args.units,
+                               Path(args.design).name, [args.design])
+        said.append(f"{args.output}: {pages} pages on {paper}")
     if args.dxf:
         from app.pack_dxf import write_sheet_dxfs
 
-        write_sheet_dxfs(pack, args.dxf, Path(args.design).stem)
+        files = write_sheet_dxfs(pack, args.dxf, Path(args.design).stem)
+        said.append(f"{args.dxf}: {len(files)} DXF files, one per sheet")
     if args.json:
         print(_json(pack_dict(pack)))
+    else:
+        bound = sum(lay.lower_bound for _, lay in pack.layouts)
+        said.append(f"{len(pack.jobs)} pieces on {pack.sheet_count} sheets (at least {bound})")
+        said += [f"warning: {w}" for w in pack.warnings]
+        said += [f"note: {n}" for n in pack.notes]
+        print("\n".join(said))
 
 
 def _run(args: argparse.Namespace) -> int:

@@ -461,7 +461,7 @@ def _paint_piece(page: _Page, pack: BuildPack, job: PieceJob) -> None:
     y0 = page.heading(p.name[:1].upper() + p.name[1:], aside)
     w, h = page.page
     head, rows = _offset_table_rows(job, u, pack.settings.offset_spacing_m)
-    table_w = 92.0 if p.ticks else 56.0
+    table_w = 92.0 if p.ticks else 66.0
     lh = page.c.line_height(SMALL_PT) + 0.6
     room_rows = int((h - y0 - MARGIN_MM - FOOTER_MM - 16) / lh) - 1
     columns = [rows[k : k + room_rows] for k in range(0, len(rows), max(room_rows, 1))][:2]

@@ -657,20 +657,26 @@ def _edge_at(edge: FloatArray, u: float) -> float | None:
 
 
 def half_outline(outline: FloatArray, centre: float) -> FloatArray:
-    """The starboard half of a symmetric outline, from the centreline at the bottom round
-    to the centreline (or the sheer) at the top: the points a builder marks."""
-    on_cl = np.abs(outline[:, 0] - centre) < 1e-6
-    low = np.where(on_cl, outline[:, 1], np.inf)
-    start = int(np.argmin(low)) if on_cl.any() else int(np.argmin(outline[:, 1]))
-    ring = np.roll(outline, -start, axis=0)
-    if len(ring) > 1 and ring[1, 0] < centre - 1e-9:
+    """The starboard half of a symmetric outline, from where it crosses the centreline at
+    the bottom round to where it crosses it at the top: the points a builder marks."""
+    poly = shapely.Polygon(outline)
+    _, miny, maxx, maxy = poly.bounds
+    right = shapely.intersection(poly, shapely.box(centre, miny - 1.0, maxx + 1.0, maxy + 1.0))
+    parts = [g for g in shapely.get_parts(right) if g.area > 0]
+    if not parts:
+        return outline[:1]
+    ring = np.asarray(max(parts, key=lambda g: g.area).exterior.coords)[:-1]
+    on_cl = np.abs(ring[:, 0] - centre) < 1e-9
+    if not on_cl.any():
+        return ring
+    start = int(np.argmin(np.where(on_cl, ring[:, 1], np.inf)))
+    ring = np.roll(ring, -start, axis=0)
+    if abs(ring[1, 0] - centre) < 1e-9:  # walk away from the centreline, not along it
         ring = np.roll(ring[::-1], 1, axis=0)
     out = [ring[0]]
     for p in ring[1:]:
-        if p[0] < centre - 1e-9:
-            break
         out.append(p)
-        if abs(p[0] - centre) < 1e-6:
+        if abs(p[0] - centre) < 1e-9:
             break
     return np.array(out)
 

@@ -333,7 +333,8 @@ def lay_out(
     material: str = "",
 ) -> Layout:
     """Place every piece on sheets of (width, length) ``sheet_wl``: first-fit decreasing
-    by area, each piece at the lowest then leftmost free spot of the first sheet it fits.
+    (by area, by length, by width: the fewest sheets wins), each piece at the lowest then
+    leftmost free spot of the first sheet it fits.
 
     Raises
     ------
@@ -347,7 +348,41 @@ def lay_out(
         raise PanelError("the kerf and margin allowances must be positive")
     if 2 * margin >= min(width, length):
         raise PanelError("the sheet margin leaves no room on the sheet")
-    order = sorted(pieces, key=lambda p: -p.polygon.area)
+    fills: list[_SheetFill] | None = None
+    for key in _ORDERS:
+        trial = _fill_sheets(sorted(pieces, key=key), width, length, margin, kerf, grain_locked)
+        if fills is None or len(trial) < len(fills):
+            fills = trial
+        if len(fills) <= lower_bound(sum(p.polygon.area for p in pieces), width * length):
+            break
+    assert fills is not None
+    sheets = tuple(
+        Sheet(width, length, material, tuple(f.placements)) for f in fills
+    )
+    area = float(sum(p.polygon.area for p in pieces))
+    sheet_area = width * length
+    util = area / (len(sheets) * sheet_area) if sheets else 0.0
+    return Layout(sheets, lower_bound(area, sheet_area) if pieces else 0, util)
+
+
+def _extent(p: LayoutPiece) -> tuple[float, float]:
+    minx, miny, maxx, maxy = p.polygon.bounds
+    return maxx - minx, maxy - miny
+
+
+#: Piece orders tried (first-fit decreasing by each); the layout with fewest sheets wins.
+_ORDERS = (
+    lambda p: -p.polygon.area,
+    lambda p: (-_extent(p)[0], -_extent(p)[1]),
+    lambda p: (-_extent(p)[1], -_extent(p)[0]),
+)
+
+
+def _fill_sheets(
+    order: list[LayoutPiece], width: float, length: float, margin: float, kerf: float,
+    grain_locked: bool,
+) -> list[_SheetFill]:
+    """First fit of ``order`` over the sheets, each at its lowest, leftmost spot."""
     fills: list[_SheetFill] = []
     for piece in order:
         shapes = _orientations(piece, grain_locked)
@@ -364,13 +399,7 @@ def lay_out(
                     f"{l_need * 1000:.0f} mm"
                 )
             fills.append(fill)
-    sheets = tuple(
-        Sheet(width, length, material, tuple(f.placements)) for f in fills
-    )
-    area = float(sum(p.polygon.area for p in pieces))
-    sheet_area = width * length
-    util = area / (len(sheets) * sheet_area) if sheets else 0.0
-    return Layout(sheets, lower_bound(area, sheet_area) if pieces else 0, util)
+    return fills
 
 
 def _try_place(fill: _SheetFill, piece: LayoutPiece, shapes: list[_Shape]) -> bool:

@@ -75,3 +75,11 @@ def test_pack_pdf_and_dxf(qapp, tmp_path, capsys):
 def test_pack_output_refusals(tmp_path, capsys, extra, message):
     assert main(["pack", PUNT, *extra]) == 2
     assert message in capsys.readouterr().err
+
+
+def test_round_bilge_pack_says_frames_only(tmp_path, capsys, qapp):
+    canoe = str(SAMPLES / "paper-loon-canoe.json")
+    assert main(["pack", canoe, "-o", str(tmp_path / "canoe.pdf")]) == 0
+    out = capsys.readouterr().out
+    assert "note: Round-bilge (smooth) sections have no chines" in out
+    assert "pages on A4" in out
