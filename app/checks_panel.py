@@ -129,10 +129,10 @@ class ChecksPanel(QWidget):
         self.arm_curve = self.static_mark = None
         if gz_plot is not None:
             self.arm_curve = pg.PlotCurveItem(
-                pen=pg.mkPen(style.CREW, width=2, style=Qt.PenStyle.DashDotLine)
+                pen=pg.mkPen(style.HEELING_ARM, width=2, style=Qt.PenStyle.DashDotLine)
             )
             self.static_mark = Markers()
-            self._mark_style = marker_style("o", 9, pen="w", brush=style.CREW)
+            self._mark_style = marker_style("o", 9, pen="w", brush=style.HEELING_ARM)
             for item in (self.arm_curve, self.static_mark):
                 gz_plot.addItem(item, ignoreBounds=True)
 
@@ -172,8 +172,8 @@ class ChecksPanel(QWidget):
 
         how = QVBoxLayout()
         how.addWidget(QLabel("Who moves (to starboard):"))
-        note = QLabel("Heeling arm: olive dash-dot line on the GZ plot")
-        note.setStyleSheet(f"color:{style.CREW};")
+        note = QLabel("Heeling arm: green dash-dot line on the GZ plot")
+        note.setStyleSheet(f"color:{style.HEELING_ARM};")
         how.addWidget(self.movers, 1)
         where = QGroupBox("How far")
         where_layout = QVBoxLayout(where)

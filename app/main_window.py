@@ -58,7 +58,7 @@ Button = QMessageBox.StandardButton
 Ask = Callable[[str, str, Button, Button], Button]
 
 KEYS_HELP = """<table cellpadding='3'>
-<tr><td><b>Drag a copper handle</b></td><td>move a point; the readout follows live</td></tr>
+<tr><td><b>Drag an orange handle</b></td><td>move a point; the readout follows live</td></tr>
 <tr><td><b>Esc</b> during a drag</td><td>put the point back</td></tr>
 <tr><td><b>Click</b> a handle</td><td>select it; type exact figures below the drawings</td></tr>
 <tr><td><b>Arrow keys</b></td><td>nudge the selected point (1 mm or 1/16 in)</td></tr>

@@ -20,6 +20,8 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
+from app import palette
+
 __all__ = [
     "FONT_FAMILY",
     "MIN_TEXT_PT",
@@ -37,16 +39,21 @@ MIN_TEXT_PT = 7.0
 
 MM_PER_PT = 25.4 / 72.0
 
-INK = QColor(24, 28, 34)
-MUTED = QColor(92, 99, 110)
-RULE = QColor(170, 176, 186)
-HULL = QColor(20, 34, 56)
-WATER = QColor(24, 110, 178)
-MARK = QColor(186, 64, 24)
-BAND = QColor(238, 241, 245)
-SHADE = QColor(226, 228, 232)
-STRIPE = QColor(246, 247, 249)
-PAPER = QColor(255, 255, 255)
+# Colours from the one palette the screen uses too (app/palette.py), one meaning each.
+INK = QColor(palette.PRINT_TEXT)
+MUTED = QColor(palette.PRINT_MUTED)
+RULE = QColor(palette.PRINT_RULE)
+HULL = QColor(palette.INK)
+WATER = QColor(palette.WATER)
+CENTRE_OF_GRAVITY = QColor(palette.CENTRE_OF_GRAVITY)
+HEELING_ARM = QColor(palette.HEELING_ARM)
+WALL_SIDED = QColor(palette.WALL_SIDED)
+CREW = QColor(palette.CREW)
+WARNING = QColor(palette.WARNING)
+BAND = QColor(palette.PRINT_BAND)
+SHADE = QColor(palette.PRINT_SHADE)
+STRIPE = QColor(palette.PRINT_STRIPE)
+PAPER = QColor(palette.PRINT_PAPER)
 
 _Align = Qt.AlignmentFlag
 LEFT = _Align.AlignLeft | _Align.AlignVCenter

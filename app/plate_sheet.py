@@ -31,18 +31,22 @@ from app.plate_content import (
 from app.plate_draw import (
     BAND,
     CENTRE,
+    CENTRE_OF_GRAVITY,
+    CREW,
+    HEELING_ARM,
     Canvas,
     HULL,
     INK,
     LEFT,
     Labels,
-    MARK,
     MUTED,
     PAPER,
     RIGHT,
     RULE,
     SHADE,
     STRIPE,
+    WALL_SIDED,
+    WARNING,
     WATER,
     dense,
     nice_step,
@@ -398,31 +402,33 @@ class Sheet:
         gx, gz = X(w.lcg), Zp(w.vcg - base)
         marks: list[tuple[float, float, str, QColor]] = []
         seats: dict[str, tuple[float, float, str]] = {}
+        level: set[str] = set()  # labels of the level-trim seats (drawn hollow)
         for n, ln in enumerate(w.lines, start=1):
             if ln.kind == "crew":
-                marks.append((X(ln.x), Zp(ln.z - base), str(n), HULL))
+                marks.append((X(ln.x), Zp(ln.z - base), str(n), CREW))
                 seats[ln.name] = (X(ln.x), Zp(ln.z - base), str(n))
         for name, sx in self.marks.level_trim_seats:
             px, pz, number = seats.get(name, (X(w.lcg), Zp(w.vcg - base), ""))
             lx = X(sx)
             if abs(lx - px) > 2.5:  # show the move from the present seat
                 c.segment(
-                    px, pz, lx - math.copysign(1.6, lx - px), pz, 0.25, MARK, Qt.PenStyle.DashLine
+                    px, pz, lx - math.copysign(1.6, lx - px), pz, 0.25, CREW, Qt.PenStyle.DashLine
                 )
-                c.arrow_head(lx - math.copysign(1.3, lx - px), pz, lx - px, 0.0, 1.4, MARK)
+                c.arrow_head(lx - math.copysign(1.3, lx - px), pz, lx - px, 0.0, 1.4, CREW)
                 labels.avoid(QRectF(min(px, lx), pz - 0.5, abs(lx - px), 1.0))
-            marks.append((lx, pz, f"{number} level".strip(), MARK))
-        below_first = {text for _, _, text, color in marks if color == MARK}
+            marks.append((lx, pz, f"{number} level".strip(), CREW))
+            level.add(f"{number} level".strip())
+        below_first = level
         for px, pz, _, _ in marks:
             labels.avoid(QRectF(px - 1.3, pz - 1.3, 2.6, 2.6))
         labels.avoid(QRectF(gx - 2.0, gz - 2.0, 4.0, 4.0))
         for px, pz, text, color in marks:
-            c.dot(px, pz, 1.1, color, hollow=color == MARK)
+            c.dot(px, pz, 1.1, color, hollow=text in level)
         c.dot(gx, gz, 1.3, PAPER)
-        c.dot(gx, gz, 1.3, MARK, hollow=True)
-        c.segment(gx - 1.9, gz, gx + 1.9, gz, 0.25, MARK)
-        c.segment(gx, gz - 1.9, gx, gz + 1.9, 0.25, MARK)
-        for px, pz, text, color in [*marks, (gx, gz, "G", MARK)]:
+        c.dot(gx, gz, 1.3, CENTRE_OF_GRAVITY, hollow=True)
+        c.segment(gx - 1.9, gz, gx + 1.9, gz, 0.25, CENTRE_OF_GRAVITY)
+        c.segment(gx, gz - 1.9, gx, gz + 1.9, 0.25, CENTRE_OF_GRAVITY)
+        for px, pz, text, color in [*marks, (gx, gz, "G", CENTRE_OF_GRAVITY)]:
             tw = c.text_width(text, t.small, True) + 0.6
             spots = [
                 QRectF(px + 1.8, pz - lh / 2, tw, lh),
@@ -762,7 +768,7 @@ class Sheet:
         c = self.c
         top = self.heading(x, y, w, "Figures", "loaded, free to trim; GM upright")
         lh = c.line_height(size)
-        color = HULL if self.a.status is Status.OK else MARK
+        color = HULL if self.a.status is Status.OK else WARNING
         for ln in c.wrap(status_sentence(self.a, self.u), size, w, bold=True):
             c.text(x, top, w, lh, ln, size, bold=True, color=color)
             top += lh
@@ -793,7 +799,7 @@ class Sheet:
         lh = self.lh_small
         if curve is None:
             c.text(
-                x, top, w, lh * 2, "No curve: the hull cannot carry the load.", t.body, color=MARK
+                x, top, w, lh * 2, "No curve: the hull cannot carry the load.", t.body, color=WARNING
             )
             return
         m = self.marks
@@ -816,7 +822,7 @@ class Sheet:
         ylabel_w = max(c.text_width(f"{v:g}", t.small) for v in ticks) + 1.5
         legend = [
             (HULL, Qt.PenStyle.SolidLine, 0.55, "GZ from heeled equilibrium, free to trim"),
-            (MUTED, Qt.PenStyle.DashLine, 0.25, "wall-sided estimate (holds at small heel only)"),
+            (WALL_SIDED, Qt.PenStyle.DashLine, 0.25, "wall-sided estimate (holds at small heel only)"),
         ]
         if m.crew_shift_heel_deg is not None or m.crew_shift_arm is not None:
             txt = (
@@ -826,7 +832,7 @@ class Sheet:
             )
             legend.append(
                 (
-                    MARK,
+                    HEELING_ARM,
                     Qt.PenStyle.DashDotLine,
                     0.35,
                     (
@@ -877,7 +883,7 @@ class Sheet:
         shown = np.flatnonzero(keep)
         for run in np.split(shown, np.flatnonzero(np.diff(shown) > 1) + 1) if shown.size else ():
             wx, wy = [PX(v) for v in heel[run]], [PY(v) for v in ws[run]]
-            c.polyline(wx, wy, 0.25, MUTED, Qt.PenStyle.DashLine)
+            c.polyline(wx, wy, 0.25, WALL_SIDED, Qt.PenStyle.DashLine)
             labels.avoid(points=dense(wx, wy))
         idx = np.flatnonzero(finite)
         if idx.size:
@@ -888,11 +894,11 @@ class Sheet:
         if m.crew_shift_arm is not None:
             arm = u.to_length(m.crew_shift_arm) * np.cos(np.radians(heel))
             ax_, ay_ = [PX(v) for v in heel], [PY(v) for v in arm]
-            c.polyline(ax_, ay_, 0.35, MARK)
+            c.polyline(ax_, ay_, 0.35, HEELING_ARM)
             labels.avoid(points=dense(ax_, ay_))
         if m.crew_shift_heel_deg is not None and hmin <= m.crew_shift_heel_deg <= hmax:
             hx = PX(m.crew_shift_heel_deg)
-            c.segment(hx, py0, hx, py1, 0.35, MARK, Qt.PenStyle.DashDotLine)
+            c.segment(hx, py0, hx, py1, 0.35, HEELING_ARM, Qt.PenStyle.DashDotLine)
             labels.avoid(points=[(hx, py0 + k) for k in np.arange(0.0, py1 - py0, 0.8)])
 
         def label(text: str, ax: float, ay: float, color: QColor, spots: Sequence[str]) -> None:
@@ -934,21 +940,21 @@ class Sheet:
                 ["above-right", "above", "above-left", "below-right"],
             )
         if curve.list_deg is not None and abs(curve.list_deg) >= 0.05:
-            c.dot(PX(curve.list_deg), PY(0.0), 0.9, WATER)
+            c.dot(PX(curve.list_deg), PY(0.0), 0.9, HULL)
             label(
                 list_text(curve.list_deg),
                 PX(curve.list_deg),
                 PY(0.0),
-                WATER,
+                HULL,
                 ["above-right", "above-left", "below-right", "below-left"],
             )
         if curve.avs_deg is not None and hmin <= curve.avs_deg <= hmax and curve.avs_deg != 0:
-            c.dot(PX(curve.avs_deg), PY(0.0), 0.9, MARK)
+            c.dot(PX(curve.avs_deg), PY(0.0), 0.9, HULL)
             label(
                 f"GZ = 0 at {abs(curve.avs_deg):.0f}°",
                 PX(curve.avs_deg),
                 PY(0.0),
-                MARK,
+                HULL,
                 ["below-left", "below-right", "above-right", "above-left"],
             )
         if gw is not None:
@@ -1005,7 +1011,7 @@ class Sheet:
         c, t = self.c, self.t
         top = self.heading(x, y, w, "Safety", "read before the first launch and keep with the boat")
         lh = c.line_height(size)
-        c.box(x, top - 1.0, 1.2, y + h - top + 1.0, fill=MARK)
+        c.box(x, top - 1.0, 1.2, y + h - top + 1.0, fill=WARNING)
         col_w = (w - 6.0 - (len(columns) - 1) * t.gap) / len(columns)
         item = 0
         for k, column in enumerate(columns):
@@ -1015,7 +1021,7 @@ class Sheet:
                 item += 1
                 disclaimer = item == len(CAUTIONS)  # the last caution, set in bold
                 if not disclaimer:
-                    c.text(cx - 0.5, yy, 3.0, lh, "•", size, bold=True, color=MARK)
+                    c.text(cx - 0.5, yy, 3.0, lh, "•", size, bold=True, color=WARNING)
                 for ln in ws:
                     c.text(cx + 2.5, yy, col_w - 2.5, lh, ln, size, bold=disclaimer)
                     yy += lh

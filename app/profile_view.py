@@ -49,10 +49,10 @@ class ProfileView(SketchView):
         self.centres = Markers()
         self.centres.setZValue(8)
         self._centre_styles = [  # G, B
-            marker_style("o", 11, "w", style.SELECTED),
+            marker_style("o", 11, "w", style.CENTRE_OF_GRAVITY),
             marker_style("o", 9, {"color": style.WATER_LINE, "width": 2}, "w"),
         ]
-        self.g_label = pg.TextItem("G", color=style.SELECTED, anchor=(-0.3, 1.0))
+        self.g_label = pg.TextItem("G", color=style.CENTRE_OF_GRAVITY, anchor=(-0.3, 1.0))
         self.b_label = pg.TextItem("B", color=style.WATER_LINE, anchor=(-0.3, 0.0))
         for label in (self.g_label, self.b_label):
             self.plot.addItem(label, ignoreBounds=True)

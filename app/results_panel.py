@@ -166,7 +166,7 @@ class ResultsPanel(QWidget):
         legend.setStyleSheet("font-size: 8pt;")
         caution = QLabel(f"{SHORT_CAUTION} <a href='#cautions'>Safety notes…</a>")
         caution.setWordWrap(True)
-        caution.setStyleSheet("color: #6b4a1f; font-size: 9pt;")
+        caution.setStyleSheet(f"color: {style.WARNING}; font-size: 9pt;")
         caution.linkActivated.connect(lambda _link: self.helpRequested.emit())
         caution.setAccessibleName("safety caution")
         self.caution = caution

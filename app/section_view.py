@@ -82,12 +82,12 @@ class SectionView(SketchView):
         self.centres = Markers()
         self.centres.setZValue(8)
         self._centre_styles = [  # G, B, M
-            marker_style("o", 11, "w", style.SELECTED),
+            marker_style("o", 11, "w", style.CENTRE_OF_GRAVITY),
             marker_style("o", 9, {"color": style.WATER_LINE, "width": 2}, "w"),
             marker_style("t1", 11, "w", style.INK),
         ]
         self.labels = {name: pg.TextItem(name, color=c, anchor=(-0.4, 0.5)) for name, c in (
-            ("G", style.SELECTED), ("B", style.WATER_LINE), ("M", style.INK))}
+            ("G", style.CENTRE_OF_GRAVITY), ("B", style.WATER_LINE), ("M", style.INK))}
         for item in (self.water, self.outline, self.body_plan, self.waterline, self.centreline, self.centres):
             self.plot.addItem(item)
         for label in self.labels.values():

@@ -1,36 +1,43 @@
-"""Hullwright's own look: colours, pens and fonts shared by every view.
+"""Hullwright's own look on screen: the palette's colours, pens and fonts for the views.
 
-A light "drafting table" palette: warm off-white paper, ink-blue lines, copper handles,
-water in a pale blue-green.  The GM state colours are paired with words and glyphs so
-they never carry meaning alone.
+A light "drafting table" look: warm off-white paper and navy ink.  Every colour comes
+from :mod:`app.palette` (shared with the print plate) and means one thing there.  The GM
+state colours are paired with words and glyphs so they never carry meaning alone.
 """
 
 from __future__ import annotations
 
 from PySide6.QtGui import QColor, QFont, QFontDatabase
 
-PAPER = "#fbf9f3"
-GRID = "#e4dfd2"
-INK = "#1f3a5f"
-INK_FAINT = "#9aa7b8"
-HANDLE = "#c8651b"
-HANDLE_EDGE = "#ffffff"
-SELECTED = "#7a1f5c"
-WATER_LINE = "#2a7f9e"
-WATER_FILL = (42, 127, 158, 38)
-CREW = "#5b6b2f"
-STATION_MARK = "#b9a77a"
-NOT_AVAILABLE_FILL = (120, 110, 100, 40)
-WALL_SIDED = "#c8651b"
-GZ_LINE = "#1f3a5f"
+from app.palette import (
+    CENTRE_OF_GRAVITY,
+    CREW,
+    GRID,
+    HANDLE,
+    HANDLE_EDGE,
+    HEELING_ARM,
+    INK,
+    INK_FAINT,
+    NOT_AVAILABLE_FILL,
+    PAPER,
+    SELECTED,
+    STATE_COLOURS,
+    STATION_MARK,
+    WALL_SIDED,
+    WARNING,
+    WATER,
+    WATER_FILL,
+)
 
-#: GM state colours (background, text) and glyphs; the words live in results_panel.
-STATE_COLOURS = {
-    "stable": ("#d9efe3", "#1d5e3b"),
-    "marginal": ("#fbecc8", "#7a4e00"),
-    "unstable": ("#f7d6d3", "#8a1c14"),
-    "none": ("#e9e6df", "#4a4a4a"),
-}
+__all__ = [
+    "CENTRE_OF_GRAVITY", "CREW", "GRID", "GZ_LINE", "HANDLE", "HANDLE_EDGE", "HEELING_ARM",
+    "INK", "INK_FAINT", "NOT_AVAILABLE_FILL", "PAPER", "SELECTED", "STATE_COLOURS",
+    "STATE_GLYPHS", "STATION_MARK", "WALL_SIDED", "WARNING", "WATER_FILL", "WATER_LINE",
+    "colour", "figure_font",
+]
+
+WATER_LINE = WATER
+GZ_LINE = INK
 STATE_GLYPHS = {"stable": "✔", "marginal": "▲", "unstable": "✖", "none": "…"}
 
 
