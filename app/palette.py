@@ -24,7 +24,7 @@ HANDLE = "#e69f00"
 #: The selected handle.
 SELECTED = "#5e3c99"
 #: The centre of gravity G.
-CENTRE_OF_GRAVITY = "#d55e00"
+CENTRE_OF_GRAVITY = "#c2185b"
 #: The heeling arm of the crew shift, and the heel where it meets GZ.
 HEELING_ARM = "#009e73"
 #: The wall-sided estimate of GZ (dashed), valid at small heel only.
