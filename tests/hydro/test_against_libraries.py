@@ -11,6 +11,7 @@ import numpy as np
 import pytest
 import shapely
 from scipy.integrate import quad
+from scipy.optimize import brentq
 
 from hydro import analyse_stations, generate_stations, load_design
 from hydro.analytic import box, v_prism
@@ -241,3 +242,24 @@ def test_area_under_gz_of_a_v_prism_matches_quad():
     area, _ = quad(gz, 0.0, end, epsabs=1e-15)
     expected = area + _trapezoid_error(gz, 0.0, end, math.radians(0.5))
     assert r.curve.area_30 == pytest.approx(expected, rel=1e-6)
+
+
+@pytest.mark.source(f"{TUPPER}, range of stability p. 60; {SHAPELY}; {SCIPY}")
+def test_max_gz_and_vanishing_angle_match_shapely():
+    """A decked box with a high G: scipy's bounded minimiser on shapely's GZ gives the
+    largest GZ and its angle, brentq its return to zero (the angle of vanishing
+    stability).  The engine reads them off its curve at 0.25 deg steps: the maximum to
+    the grid's O(h^2), the zero by linear interpolation."""
+    from scipy.optimize import minimize_scalar
+
+    half = PRISMS["box"]
+    L, kg = 3.0, 0.42
+    area = 0.2 * section_polygon(half).area
+    r = run(_prism(half, L), RHO * L * area, L / 2, kg, np.arange(0.0, 120.25, 0.25))
+    gz = lambda deg: prism_gz(half, area, kg, math.radians(deg))  # noqa: E731
+    best = minimize_scalar(lambda d: -gz(d), bounds=(5.0, 60.0), method="bounded",
+                           options={"xatol": 1e-6})
+    avs = brentq(gz, best.x, 119.0, xtol=1e-10)
+    assert r.curve.max_gz == pytest.approx(-best.fun, abs=2e-6)
+    assert r.curve.max_gz_deg == pytest.approx(best.x, abs=0.125)
+    assert r.curve.avs_deg == pytest.approx(avs, abs=2e-3)

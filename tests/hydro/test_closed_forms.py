@@ -446,5 +446,7 @@ def test_trim_from_a_weight_moved_forward():
     assert h.trim == pytest.approx(L * tan, rel=2e-5)
     assert h.draft_fore == pytest.approx(T + L / 2 * tan, rel=2e-5)
     assert h.lcb - L / 2 == pytest.approx(bm_l * h.tau, rel=1e-9)  # B moves by BM_L tan
+    assert h.min_freeboard == pytest.approx(D - h.draft_fore, rel=1e-12)  # lowest at the bow
+    assert h.min_freeboard_x == L
     mct = delta * gm_l / (100 * L)
     assert h.trim * 100 == pytest.approx(delta * shift / mct, rel=1e-3)  # small-angle form
