@@ -16,6 +16,7 @@ from PySide6.QtWidgets import (
     QDoubleSpinBox,
     QHBoxLayout,
     QLabel,
+    QLineEdit,
     QPushButton,
     QSplitter,
     QVBoxLayout,
@@ -24,7 +25,7 @@ from PySide6.QtWidgets import (
 
 from app.document import HullDocument
 from app.view_options import ViewOptions
-from hydro import Design
+from hydro import Design, HullwrightError
 from hydro.build_pack import BuildPack, PackSettings, build_pack
 from hydro.sheet_layout import SHEET_PRESETS
 
@@ -100,6 +101,15 @@ class BuildView(QWidget):
             "Warn when a panel's twist strain is above this (no published limit was found "
             "for plywood or board)"
         )
+        self.frames_edit = QLineEdit()
+        self.frames_edit.setPlaceholderText("automatic")
+        self.frames_edit.setToolTip(
+            "Frame positions from the aft end, separated by commas (in the display units "
+            "unless a unit is typed); empty: a few evenly spaced"
+        )
+        self.frames_edit.editingFinished.connect(self._on_frames_edited)
+        self._frames: tuple[float, ...] | None = None
+        self.frames_error = ""
         export = QPushButton("Export build pack…")
         export.clicked.connect(self.exportRequested.emit)
         controls = QHBoxLayout()
@@ -107,6 +117,8 @@ class BuildView(QWidget):
         controls.addWidget(self.sheet_box)
         controls.addWidget(QLabel("Strain limit"))
         controls.addWidget(self.strain_box)
+        controls.addWidget(QLabel("Frames at"))
+        controls.addWidget(self.frames_edit, 1)
         controls.addStretch(1)
         controls.addWidget(export)
 
@@ -149,7 +161,31 @@ class BuildView(QWidget):
     def pack_settings(self) -> PackSettings:
         """The settings the view (and File › Export build pack) use."""
         width, length = self.sheet_box.currentData()
-        return PackSettings(sheet_m=(width, length), strain_limit=self.strain_box.value() / 100)
+        return PackSettings(
+            sheet_m=(width, length),
+            strain_limit=self.strain_box.value() / 100,
+            frame_x=self._frames,
+        )
+
+    def _on_frames_edited(self) -> None:
+        """Read the frame positions typed; a bad one is named and nothing changes."""
+        text = self.frames_edit.text().strip()
+        x0, x1 = self.document.committed.stations().x[[0, -1]]
+        try:
+            frames = tuple(
+                self.options.units.parse_length(t, float(x0), float(x1), "a frame position")
+                for t in text.replace(";", ",").split(",") if t.strip()
+            ) or None
+        except HullwrightError as e:
+            self.frames_error = str(e)
+            self._show_summary()
+            return
+        self.frames_error = ""
+        if frames != self._frames:
+            self._frames = frames
+            self.refresh()
+        else:
+            self._show_summary()
 
     def _on_settings_changed(self) -> None:
         self.settings.setValue("pack/sheet", self.sheet_box.currentText())
@@ -208,7 +244,9 @@ class BuildView(QWidget):
             lines.append("Joined (longer than a sheet): " + ", ".join(joined))
         lines += [n for n in pack.notes if "longer than the sheet" not in n]
         self.summary.setText("\n".join(lines))
-        self.warnings.setText("\n".join(pack.warnings))
+        self.warnings.setText("\n".join(
+            ([f"Frames: {self.frames_error}"] if self.frames_error else []) + list(pack.warnings)
+        ))
 
     def _draw(self) -> None:
         self.panels_plot.clear()

@@ -69,3 +69,17 @@ def test_file_export_build_pack_writes_the_pdf(qtbot, tmp_path):
     assert window.write_pack(out, "A4")
     assert out.read_bytes().startswith(b"%PDF")
     assert not window.write_pack(tmp_path / "missing" / "x.pdf", "A4")
+
+
+def test_frames_typed_in_display_units(view, qtbot):
+    doc, widget = view("heron-punt")
+    widget.frames_edit.setText("800, 1600")
+    widget.frames_edit.editingFinished.emit()
+    qtbot.waitUntil(lambda: sum(j.piece.kind == "frame" for j in widget.pack.jobs) == 2,
+                    timeout=20000)
+    frames = [j.piece.position_m for j in widget.pack.jobs if j.piece.kind == "frame"]
+    assert frames == pytest.approx([0.8, 1.6])
+    widget.frames_edit.setText("800, 9000")
+    widget.frames_edit.editingFinished.emit()
+    assert "Frames:" in widget.warnings.text()
+    assert sum(j.piece.kind == "frame" for j in widget.pack.jobs) == 2
