@@ -425,7 +425,8 @@ def _check(args: argparse.Namespace) -> None:
     lines += [t.message for t in trims]
     if beam is not None:
         lines.append(beam.message)
-    lines += ["", f"{'case':<28}{'mass kg':>9}{'GM mm':>9}{'freeboard mm':>14}{'gunwale deg':>13}  status"]
+    if rows:
+        lines += ["", f"{'case':<28}{'mass kg':>9}{'GM mm':>9}{'freeboard mm':>14}{'gunwale deg':>13}  status"]
     for r in rows:
         lines.append(
             f"{r.case:<28}{_fmt(r.displacement, 1):>9}{_fmt(r.gm and r.gm * 1000, 0):>9}"
@@ -434,7 +435,7 @@ def _check(args: argparse.Namespace) -> None:
         )
     if swamp is not None:
         lines += ["", swamp.message]
-    lines += [f"Could not run: {p}" for p in result.problems]
+    lines += [f"Could not run: {p}" for p in result.problems if p != result.analysis.message]
     print("\n".join(lines))
 
 

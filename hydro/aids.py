@@ -16,13 +16,23 @@ from hydro.hull import HullSketch, scale_breadth
 from hydro.loads import Loads, shell_panels, weight_build_up
 from hydro.sections import build_section_table
 from hydro.stability import Hydrostatics, upright
+from hydro.wording import beam_text
+
+#: Narrowest and widest beam the aid tries, as factors on the present beam.
+BEAM_FACTORS_LOW = 0.3
+BEAM_FACTORS = (BEAM_FACTORS_LOW, 3.0)
 
 __all__ = ["TARGET_GM_M", "BeamResult", "TrimResult", "apply_level_trim", "beam_for_gm", "level_trim"]
 
 
 @dataclass(frozen=True)
 class BeamResult:
-    """The uniform breadth scale that gives a target GM."""
+    """The uniform breadth scale that gives a target GM.
+
+    ``narrowest`` is the smallest factor tried: 0.3, or the narrowest beam that still
+    floats the load with the gunwale clear.  ``factor`` is None when no beam from there
+    to 3x gives the target.
+    """
 
     target_gm: float
     factor: float | None
@@ -30,16 +40,22 @@ class BeamResult:
     beam_after: float | None
     gm_before: float
     gm_after: float | None
-    message: str
+    narrowest: float = BEAM_FACTORS_LOW
+
+    @property
+    def message(self) -> str:
+        """One line, metric (see :func:`hydro.wording.beam_text`)."""
+        return beam_text(self)
 
 
 def _upright_gm(design: Design) -> tuple[float, float] | None:
+    """Upright GM and beam, or None when the load does not float with the gunwale clear."""
     stations = design.stations()
     table = build_section_table(stations)
     rho = design.water_density
     weights = weight_build_up(design.loads, stations, rho)
     hs = upright(table, weights, rho)
-    if hs is None:
+    if hs is None or hs.min_freeboard <= 0:
         return None
     return hs.gm, 2 * stations.max_half_breadth
 
@@ -47,8 +63,11 @@ def _upright_gm(design: Design) -> tuple[float, float] | None:
 def beam_for_gm(design: Design, target: float = TARGET_GM_M, tolerance: float = 1e-4) -> BeamResult:
     """Scale every half-breadth by one factor (0.3 to 3) so that GM = target (+- tolerance m).
 
-    Materials follow the new surface, crew stay where they sit.  Solved by bisection
-    with secant steps on the factor.
+    Materials follow the new surface, crew stay where they sit.  A narrow trial beam may
+    not float the load at all (a heavily loaded box goes under at 0.3x), so the aid
+    first finds the narrowest factor that floats the load with the gunwale clear
+    (bisection between 0.3 and the present beam, which floats), then solves GM = target
+    between that and 3x by bisection with secant steps.
     """
     sketch = design.hull
     if not isinstance(sketch, HullSketch):
@@ -65,13 +84,23 @@ def beam_for_gm(design: Design, target: float = TARGET_GM_M, tolerance: float = 
 
     now = _upright_gm(design)
     if now is None:
-        raise LoadError("the design does not float upright as it is")
+        raise LoadError("the design does not float upright with the gunwale clear as it is")
     gm0, beam0 = now
-    lo, hi = 0.3, 3.0
-    f_lo, f_hi = gm_at(lo), gm_at(hi)
-    if f_lo is None or f_hi is None or (f_lo - target) * (f_hi - target) > 0:
-        return BeamResult(target, None, beam0, None, gm0, None,
-                          f"No beam between 0.3x and 3x the present one gives GM = {target * 1000:.0f} mm.")
+    lo, hi = BEAM_FACTORS
+    f_lo = gm_at(lo)
+    if f_lo is None:  # the narrowest trial sinks: find where the load starts to float
+        sinks, floats, f_floats = lo, 1.0, gm0
+        while floats - sinks > 1e-3:
+            mid = 0.5 * (sinks + floats)
+            got = gm_at(mid)
+            if got is None:
+                sinks = mid
+            else:
+                floats, f_floats = mid, got
+        lo, f_lo = floats, f_floats
+    f_hi = gm_at(hi)
+    if f_hi is None or (f_lo - target) * (f_hi - target) > 0:
+        return BeamResult(target, None, beam0, None, gm0, None, lo)
     k = 1.0
     f_k = gm0
     for _ in range(60):
@@ -85,10 +114,7 @@ def beam_for_gm(design: Design, target: float = TARGET_GM_M, tolerance: float = 
         k = k_new if lo < k_new < hi else 0.5 * (lo + hi)
         got = gm_at(k)
         f_k = got if got is not None else f_lo
-    beam = beam0 * k
-    return BeamResult(target, k, beam0, beam, gm0, f_k,
-                      f"GM reaches {f_k * 1000:.0f} mm at a beam of {beam * 1000:.0f} mm (x{k:.3f}); "
-                      f"the present {beam0 * 1000:.0f} mm gives {gm0 * 1000:.0f} mm.")
+    return BeamResult(target, k, beam0, beam0 * k, gm0, f_k, lo)
 
 
 @dataclass(frozen=True)

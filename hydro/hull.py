@@ -315,7 +315,7 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
     ------
     ShapeError
         If the sketch is impossible (see :func:`validate_sketch`), including a blend of
-        two shapes that crosses itself (checked halfway between them).
+        two shapes that crosses itself, halfway between them or at any station.
     """
     validate_sketch(sketch)
     n = sketch.station_count if count is None else count
@@ -327,8 +327,50 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
         validate_half_section(_blend(shapes, at, np.array([mid]))[0], f"the blend at x = {mid:.3f} m")
     x0, x1 = sketch.x_range
     xs = np.linspace(x0, x1, n)
-    # affine maps with positive scales keep the checked shapes free of crossings
+    # every station's blended shape, exactly: the placing below is an affine map with
+    # positive scales, which keeps a shape free of crossings
+    bad = first_crossed_outline(_blend(shapes, at, xs))
+    if bad is not None:
+        raise ShapeError(
+            f"station {bad} at x = {xs[bad]:.3f} m: the section outline crosses itself "
+            "(the blend of the section shapes there)"
+        )
     return Stations(xs, tuple(_place_shapes(sketch, shapes, at, xs)), check_sections=False)
+
+
+def first_crossed_outline(halves: FloatArray) -> int | None:
+    """Index of the first half section whose mirrored, closed outline crosses itself.
+
+    ``halves`` is (n, m, 2): n half sections of m points (y, z) from the centreline to
+    the gunwale.  Every pair of non-adjacent edges of each outline is tested exactly
+    (orientation signs: the edges cross when each one's ends lie strictly on opposite
+    sides of the other), vectorised over the sections.
+
+    >>> square = np.array([[[0.0, 0.0], [1.0, 0.0], [1.0, 1.0]]])
+    >>> bow_tie = np.array([[[0.0, 0.0], [1.0, 1.0], [1.0, 0.0], [0.5, 1.0]]])
+    >>> first_crossed_outline(square), first_crossed_outline(bow_tie)
+    (None, 0)
+    """
+    ring = np.concatenate([halves, halves[:, -1::-1][:, :-1] * np.array([-1.0, 1.0])], axis=1)
+    start = ring
+    end = np.roll(ring, -1, axis=1)  # the last edge closes the outline
+    count = ring.shape[1]
+
+    def orient(p: FloatArray, q: FloatArray, r: FloatArray) -> FloatArray:
+        return np.sign(
+            (q[..., 0] - p[..., 0]) * (r[..., 1] - p[..., 1])
+            - (q[..., 1] - p[..., 1]) * (r[..., 0] - p[..., 0])
+        )
+
+    a0, a1 = start[:, :, None], end[:, :, None]
+    b0, b1 = start[:, None, :], end[:, None, :]
+    crosses = (orient(a0, a1, b0) * orient(a0, a1, b1) < 0) & (
+        orient(b0, b1, a0) * orient(b0, b1, a1) < 0
+    )
+    i, j = np.indices((count, count))
+    apart = (j > i + 1) & ~((i == 0) & (j == count - 1))
+    hit = np.flatnonzero((crosses & apart).any(axis=(1, 2)))
+    return int(hit[0]) if hit.size else None
 
 
 def _place_shapes(sketch: HullSketch, shapes: FloatArray, at: FloatArray, xs: FloatArray) -> FloatArray:

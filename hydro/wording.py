@@ -256,7 +256,12 @@ def trim_text(t: TrimResult, u: UnitSystem = METRIC) -> str:
 def beam_text(b: BeamResult, u: UnitSystem = METRIC) -> str:
     """The beam aid's answer."""
     if b.factor is None:
-        return f"No beam between 0.3 and 3 times the present one gives GM {u.length_text(b.target_gm)}."
+        low = f"{b.narrowest:.2f}" if b.narrowest > 0.3 + 1e-9 else "0.3"
+        why = " (the narrowest that floats the load)" if b.narrowest > 0.3 + 1e-9 else ""
+        return (
+            f"No beam between {low}{why} and 3 times the present one gives GM "
+            f"{u.length_text(b.target_gm)}."
+        )
     return (
         f"GM reaches {u.length_text(b.gm_after)} at a beam of {u.length_text(b.beam_after)} "
         f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives {u.length_text(b.gm_before)}."
