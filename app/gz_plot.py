@@ -121,10 +121,13 @@ class GzPlot(pg.PlotWidget):
             self.beyond_band.hide()
             return
         heel, gz = curve.heel_deg, curve.gz
-        last = float(heel[-1])
+        first, last = min(float(heel[0]), 0.0), float(heel[-1])
         gunwale = curve.gunwale_immersion_deg
+        to_port = gunwale is not None and gunwale < 0  # a boat listing to port
         if gunwale is None or not open_boat:
             split = heel.size
+        elif to_port:
+            split = int(np.searchsorted(heel, gunwale, side="left"))
         else:
             split = int(np.searchsorted(heel, gunwale, side="right"))
         finite = gz[np.isfinite(gz)]
@@ -134,29 +137,39 @@ class GzPlot(pg.PlotWidget):
         bottom = -min(nice_ceiling(-low * 1.15), top) if low < 0 else -0.08 * top
         if steady and self._span is not None and self._span[0] == last:
             bottom, top = min(bottom, self._span[1]), max(top, self._span[2])
-        self.open_part.setData(heel[:split], gz[:split])
-        start = max(split - 1, 0)
-        self.beyond_part.setData(heel[start:], gz[start:])
-        self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top))
+        if to_port and split < heel.size:  # the gunwale goes under on the port side
+            self.open_part.setData(heel[split:], gz[split:])
+            self.beyond_part.setData(heel[: split + 1], gz[: split + 1])
+        else:
+            self.open_part.setData(heel[:split], gz[:split])
+            start = max(split - 1, 0)
+            self.beyond_part.setData(heel[start:], gz[start:])
+        if first < 0:  # both sides: hide what leaves the plot (dashes far out are slow)
+            with np.errstate(invalid="ignore"):
+                ws = curve.wall_sided
+                self.wall_sided.setData(heel, np.where((ws >= bottom) & (ws <= top), ws, np.nan))
+        else:
+            self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top))
         if gunwale is None:
             self.gunwale_line.hide()
             self.beyond_band.hide()
         else:
             self.gunwale_line.setValue(gunwale)
             # label on whichever side of the line has room
-            side = (1, 0) if gunwale > 0.6 * last else (0, 0)
+            side = (1, 0) if gunwale - first > 0.6 * (last - first) else (0, 0)
             if side != self._label_side:
                 self._label_side = side
                 self.gunwale_line.label.anchors = [side, side]
                 self.gunwale_line.label.updatePosition()
             self.gunwale_line.show()
-            self.beyond_band.setRegion((gunwale, last))
+            self.beyond_band.setRegion((first, gunwale) if to_port else (gunwale, last))
             self.beyond_band.setVisible(open_boat)
         if math.isfinite(curve.max_gz):
-            self.peak.set_markers([curve.max_gz_deg], [curve.max_gz], [self._peak_style])
+            peak = curve.side * curve.max_gz  # the righting arm towards the listing side
+            self.peak.set_markers([curve.max_gz_deg], [peak], [self._peak_style])
         else:
             self.peak.set_markers([], [], [])
         span = (last, bottom, top)
         if not (steady and span == self._span):
             self._span = span
-            self.setRange(xRange=(0.0, last), yRange=(bottom, top), padding=0.02)
+            self.setRange(xRange=(first, last), yRange=(bottom, top), padding=0.02)
