@@ -17,7 +17,6 @@ from PySide6.QtWidgets import (
     QFormLayout,
     QHBoxLayout,
     QLabel,
-    QLineEdit,
     QPushButton,
     QTabWidget,
     QVBoxLayout,
@@ -151,9 +150,6 @@ class LoadEditor(QWidget):
         return tab
 
     def _water_tab(self) -> QWidget:
-        self.name_edit = QLineEdit()
-        self.name_edit.setPlaceholderText("name of the boat or the team")
-        self.name_edit.editingFinished.connect(self._on_name_typed)
         self.water_box = QComboBox()
         for name in WATER_PRESETS:
             self.water_box.addItem(f"{name} water", name)
@@ -181,7 +177,6 @@ class LoadEditor(QWidget):
         self.open_box.toggled.connect(self._on_open_toggled)
         tab = QWidget()
         form = QFormLayout(tab)
-        form.addRow("Design name", self.name_edit)
         form.addRow("Hull", self.open_box)
         form.addRow("Water", self.water_box)
         form.addRow("Density", self.density_box)
@@ -217,8 +212,6 @@ class LoadEditor(QWidget):
         for i, rho in enumerate(WATER_PRESETS.values()):
             name = self.water_box.itemData(i)
             self.water_box.setItemText(i, f"{name} water ({_density_text(rho, units)})")
-        with QSignalBlocker(self.name_edit):
-            self.name_edit.setText(design.name)
         with QSignalBlocker(self.water_box), QSignalBlocker(self.density_box):
             preset = design.water.lower() if isinstance(design.water, str) else None
             index = self.water_box.findData(preset if preset in WATER_PRESETS else _CUSTOM_WATER)
@@ -293,12 +286,6 @@ class LoadEditor(QWidget):
             return
         rows = getattr(self.document.committed.loads, field)
         self._edit_loads(f"Remove {table.noun}", **{field: rows[:row] + rows[row + 1 :]})
-
-    def _on_name_typed(self) -> None:
-        name = self.name_edit.text().strip()
-        design = self.document.committed
-        if name and name != design.name:
-            self._edit(replace(design, name=name), "Rename design")
 
     def _on_water_chosen(self) -> None:
         choice = self.water_box.currentData()

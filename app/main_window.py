@@ -12,18 +12,32 @@ Questions that need an answer (save before closing? recover unsaved work?) go th
 from __future__ import annotations
 
 import importlib
+import re
 from importlib import resources
 from pathlib import Path
 from typing import Callable
 
-from PySide6.QtCore import QSettings, Qt
-from PySide6.QtGui import QAction, QActionGroup, QCloseEvent, QIcon, QKeySequence
+from PySide6.QtCore import QEvent, QObject, QSettings, Qt
+from PySide6.QtGui import (
+    QAction,
+    QActionGroup,
+    QCloseEvent,
+    QIcon,
+    QKeyEvent,
+    QKeySequence,
+    QTextDocumentFragment,
+)
 from PySide6.QtWidgets import (
+    QAbstractSpinBox,
     QDockWidget,
+    QDoubleSpinBox,
     QFileDialog,
     QLabel,
+    QLineEdit,
     QMainWindow,
     QMessageBox,
+    QPlainTextEdit,
+    QSpinBox,
     QSplitter,
     QVBoxLayout,
     QWidget,
@@ -36,7 +50,9 @@ from app import style
 from app.document import HullDocument, starter_design
 from app.build_view import BuildView
 from app.checks_panel import ChecksPanel
+from app.design_header import DesignHeader
 from app.dimensions_panel import DimensionsPanel
+from app.length_box import LengthBox
 from app.load_editor import LoadEditor
 from app.pack_dialog import PackDialog
 from app.plan_view import PlanView
@@ -126,6 +142,8 @@ class MainWindow(QMainWindow):
         column = QVBoxLayout(central)
         column.setContentsMargins(0, 0, 0, 0)
         column.setSpacing(0)
+        self.header = DesignHeader(document)
+        column.addWidget(self.header)
         column.addWidget(drawings, 1)
         column.addWidget(self.point_entry)
         self.setCentralWidget(central)
@@ -164,6 +182,7 @@ class MainWindow(QMainWindow):
 
         self.recovery = Autosave(document, recovery_folder(settings), self)
 
+        self._route_undo_from_fields()
         self.resize(1440, 900)
         geometry = settings.value("window/geometry")
         if geometry is not None:
@@ -224,12 +243,16 @@ class MainWindow(QMainWindow):
             "materials list and full-size templates as a PDF"
         )
         self.quit_action = self._action("&Quit", self.close, keys.Quit)
-        self.undo_action = self.document.undo_stack.createUndoAction(self, "&Undo")
-        self.undo_action.setShortcut(QKeySequence(keys.Undo))
-        self.undo_action.setIcon(icon("undo"))
-        self.redo_action = self.document.undo_stack.createRedoAction(self, "&Redo")
+        # fixed texts, so the toolbar never shifts; what would be undone is in the tooltip
+        stack = self.document.undo_stack
+        self.undo_action = self._action("&Undo", stack.undo, keys.Undo, "undo")
+        self.redo_action = self._action("&Redo", stack.redo, keys.Redo, "redo")
         self.redo_action.setShortcuts([QKeySequence(keys.Redo), QKeySequence("Ctrl+Y")])
-        self.redo_action.setIcon(icon("redo"))
+        stack.canUndoChanged.connect(self.undo_action.setEnabled)
+        stack.canRedoChanged.connect(self.redo_action.setEnabled)
+        stack.undoTextChanged.connect(self._show_undo_text)
+        stack.redoTextChanged.connect(self._show_undo_text)
+        self._show_undo_text()
         self.remove_point_action = self._action(
             "Remove selected point", self.document.remove_selected_point, tip="Remove the selected control point"
         )
@@ -295,11 +318,35 @@ class MainWindow(QMainWindow):
         bar.addSeparator()
         bar.addAction(self.plate_action)
 
+    def _show_undo_text(self, _text: str = "") -> None:
+        """What Undo and Redo would do, in their tooltips (their labels stay put)."""
+        stack = self.document.undo_stack
+        for action, verb, can, text in (
+            (self.undo_action, "Undo", stack.canUndo(), stack.undoText()),
+            (self.redo_action, "Redo", stack.canRedo(), stack.redoText()),
+        ):
+            action.setEnabled(can)
+            _set_tip(action, f"{verb} {text.lower()}" if can else f"{verb}: nothing to {verb.lower()}")
+
+    def _route_undo_from_fields(self) -> None:
+        """Ctrl+Z / Ctrl+Y in a field undo the design unless the field holds unentered text."""
+        for kind in (QLineEdit, QAbstractSpinBox, QPlainTextEdit):
+            for field in self.findChildren(kind):
+                field.installEventFilter(self)
+
+    def eventFilter(self, watched: QObject, event: QEvent) -> bool:
+        if event.type() == QEvent.Type.ShortcutOverride and _is_undo_key(event):
+            field = watched.parent() if isinstance(watched.parent(), QAbstractSpinBox) else watched
+            if not has_unsaved_text(field):
+                event.ignore()  # not the field's: the window's Undo / Redo shortcut runs
+                return True
+        return super().eventFilter(watched, event)
+
     # ------------------------------------------------------------ small slots
 
     def _on_notice(self, text: str) -> None:
         if text:
-            self.statusBar().showMessage(text, 8000)
+            self.statusBar().showMessage(plain_text(text), 8000)
         else:
             self.statusBar().clearMessage()
 
@@ -329,7 +376,8 @@ class MainWindow(QMainWindow):
         box.setWindowTitle(title)
         box.setText(text)
         box.open()
-        self.statusBar().showMessage(f"{title}: {text.splitlines()[0]}", 10000)
+        first = plain_text(text).strip().splitlines()
+        self.statusBar().showMessage(f"{title}: {first[0]}" if first else title, 10000)
         return box
 
     # ------------------------------------------------------------ files
@@ -585,6 +633,45 @@ def _words(error: BaseException) -> str:
     if isinstance(error, MemoryError):
         return "not enough memory for this design"
     return f"unexpected problem ({type(error).__name__}: {error})"
+
+
+def _is_undo_key(event: QKeyEvent) -> bool:
+    keys = QKeySequence.StandardKey
+    combo = event.keyCombination()
+    return (
+        event.matches(keys.Undo)
+        or event.matches(keys.Redo)
+        or QKeySequence(combo) == QKeySequence("Ctrl+Y")
+    )
+
+
+def has_unsaved_text(field: QObject) -> bool:
+    """True if ``field`` holds typed text not yet entered (its own undo then applies).
+
+    A length box or spin box whose text differs from its value, a line edit changed since
+    it was last entered, notes typed and not yet saved into the design.
+    """
+    if isinstance(field, LengthBox):
+        return field.has_unsaved_text()
+    if isinstance(field, (QSpinBox, QDoubleSpinBox)):
+        return field.cleanText() != field.textFromValue(field.value())
+    if isinstance(field, QLineEdit):
+        return field.isModified()
+    if isinstance(field, QPlainTextEdit):
+        return field.document().isModified()
+    return True
+
+
+def plain_text(text: str) -> str:
+    """``text`` without markup, for the status bar (which shows tags as they are)."""
+    if not re.search(r"<[a-zA-Z/]", text):
+        return text
+    return QTextDocumentFragment.fromHtml(text).toPlainText()
+
+
+def _set_tip(action: QAction, tip: str) -> None:
+    action.setToolTip(tip)
+    action.setStatusTip(tip)
 
 
 def _flag(value: object) -> bool:

@@ -78,8 +78,8 @@ ROWS: tuple[_Row, ...] = (
          "Everything aboard: crew, hull material, ballast, fittings, bilge water"),
     _Row("draft", "Draft amidships", _LEN, _length(lambda a: a.hydrostatics.draft_mid),
          "Depth of the lowest point of the hull below the water, halfway along"),
-    _Row("trim", "Trim, bow down", _DEG, lambda a, u: _angle(a.hydrostatics.trim_deg),
-         "Positive: the bow sits lower than the stern"),
+    _Row("trim", "Trim", _DEG, lambda a, u: _angle(abs(a.hydrostatics.trim_deg)),
+         "How far the boat sits down by the bow or by the stern"),
     _Row("freeboard", "Least freeboard", _LEN, _length(lambda a: a.hydrostatics.min_freeboard),
          "Lowest height of the gunwale above the water, upright"),
     _Row("kb", "KB", _LEN, _length(lambda a: a.hydrostatics.kb), "Centre of buoyancy above the keel"),
@@ -101,6 +101,19 @@ ROWS: tuple[_Row, ...] = (
          "Heel span from the list over which GZ stays positive "
          "(≥: still positive at the last angle)"),
 )
+
+
+def trim_words(trim_deg: float | None) -> str:
+    """The unit and sense of a trim angle, in words: "° by the bow", "° by the stern".
+
+    >>> trim_words(0.3), trim_words(-1.3), trim_words(0.01)
+    ('° by the bow', '° by the stern', '° level')
+    """
+    if trim_deg is None or not math.isfinite(trim_deg):
+        return "°"
+    if abs(trim_deg) < 0.05:  # shows as 0.0
+        return "° level"
+    return "° by the bow" if trim_deg > 0 else "° by the stern"
 
 
 def _text_or_dash(row: _Row, analysis: Analysis, units: UnitSystem) -> str:
@@ -151,7 +164,7 @@ class ResultsPanel(QWidget):
             value.setFixedSize(width, value.sizeHint().height())  # no relayout for new figures
             value.setToolTip(row.tip)
             unit = QLabel()
-            unit.setMinimumWidth(self.fontMetrics().horizontalAdvance("mm  "))
+            unit.setFixedWidth(self.fontMetrics().horizontalAdvance("° by the stern  "))
             grid.addWidget(name, r, 0)
             grid.addWidget(value, r, 1)
             grid.addWidget(unit, r, 2)
@@ -206,6 +219,8 @@ class ResultsPanel(QWidget):
         units = self.options.units
         for row in ROWS:
             self.values[row.key].setText(_text_or_dash(row, analysis, units))
+        hs = analysis.hydrostatics
+        self.units["trim"].setText(trim_words(None if hs is None else hs.trim_deg))
         state = state_of(analysis)
         self._show_state(analysis, state)
         self._show_status(analysis, state)

@@ -252,7 +252,10 @@ class SketchView(QWidget):
                 return self.cancel_drag()
             if key in _ARROWS:
                 coarse = bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier)
-                self.nudge(*_ARROWS[key], coarse)
+                dx, dy = _ARROWS[key]
+                if self.view_box.yInverted():  # the plan: port up, so "up" is towards -y
+                    dy = -dy
+                self.nudge(dx, dy, coarse)
                 return True
             if key in (Qt.Key.Key_Delete, Qt.Key.Key_Backspace):
                 self.delete_selected()

@@ -108,8 +108,9 @@ def test_arrow_keys_nudge_the_selected_point_and_merge(setup, qtbot):
     qtbot.mouseClick(plan.plot.viewport(), Qt.MouseButton.LeftButton, pos=p)
     assert doc.selection is not None and doc.selection.index == 1
     plan.plot.setFocus()
-    qtbot.keyClick(plan.plot, Qt.Key.Key_Up)
-    qtbot.keyClick(plan.plot, Qt.Key.Key_Up, Qt.KeyboardModifier.ShiftModifier)
+    # the plan is seen from above, port up: Down moves the starboard handle outwards (+y)
+    qtbot.keyClick(plan.plot, Qt.Key.Key_Down)
+    qtbot.keyClick(plan.plot, Qt.Key.Key_Down, Qt.KeyboardModifier.ShiftModifier)
     qtbot.keyClick(plan.plot, Qt.Key.Key_Right)
     assert doc.committed.hull.plan.points[1] == pytest.approx((x + 0.001, b + 0.011))
     assert doc.undo_stack.count() == 1

@@ -1,0 +1,108 @@
+"""Desktop behaviour: arrows follow the screen, undo from any field, a steady toolbar,
+plain status messages, the name and notes header, trim in words."""
+
+import pytest
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QKeySequence, QTextCursor
+from PySide6.QtWidgets import QMessageBox
+
+from app.document import HullDocument
+from app.editing import PointRef
+from app.main_window import MainWindow
+from app.settings import open_settings
+from tests.app.helpers import sample, to_pixel
+
+
+@pytest.fixture
+def window(qtbot):
+    w = MainWindow(HullDocument(sample("heron-punt")), open_settings())
+    w.ask = lambda *a: QMessageBox.StandardButton.Discard
+    qtbot.addWidget(w)
+    w.show()
+    qtbot.waitExposed(w)
+    w.document.recompute_now()
+    yield w
+    w.close()
+
+
+def _screen_y(view, ref):
+    x, y = view.document.committed.hull.plan.points[ref.index]
+    return to_pixel(view.plot, x, y).y()
+
+
+def test_up_arrow_moves_a_plan_point_up_the_screen(window, qtbot):
+    view = window.plan_view
+    ref = PointRef("plan", 2)
+    window.document.select(ref)
+    before = window.document.committed.hull.plan.points[2][1]
+    top = _screen_y(view, ref)
+    view.plot.setFocus()
+    qtbot.keyClick(view.plot, Qt.Key.Key_Up, Qt.KeyboardModifier.ShiftModifier)
+    assert _screen_y(view, ref) < top  # up on the screen: towards port, the half-breadth shrinks
+    assert window.document.committed.hull.plan.points[2][1] == pytest.approx(before - 0.010)
+    profile = window.profile_view
+    window.document.select(PointRef("sheer", 1))
+    height = window.document.committed.hull.sheer.points[1][1]
+    qtbot.keyClick(profile.plot, Qt.Key.Key_Up)
+    assert window.document.committed.hull.sheer.points[1][1] == pytest.approx(height + 0.001)
+
+
+def test_ctrl_z_in_a_field_undoes_the_design_unless_text_is_being_typed(window, qtbot):
+    doc = window.document
+    design = doc.committed
+    box = window.dimensions.fields["beam"]
+    window.dimensions_dock.raise_()
+    box.setFocus()
+    box.lineEdit().selectAll()
+    qtbot.keyClicks(box.lineEdit(), "1.1 m")
+    qtbot.keyClick(box.lineEdit(), Qt.Key.Key_Return)
+    assert doc.undo_stack.count() == 1
+    qtbot.keyClicks(box.lineEdit(), "5")  # typed, not entered: Ctrl+Z is the field's own
+    assert box.has_unsaved_text()
+    qtbot.keySequence(box.lineEdit(), QKeySequence.StandardKey.Undo)
+    assert doc.committed != design
+    box.set_metres(box.metres())  # nothing typed any more: Ctrl+Z undoes the design
+    qtbot.keySequence(box.lineEdit(), QKeySequence.StandardKey.Undo)
+    assert doc.committed == design
+    assert box.text() == "960 mm"
+
+
+def test_the_toolbar_keeps_its_layout_as_the_undo_text_changes(window):
+    assert window.undo_action.text() == "&Undo"
+    assert "nothing" in window.undo_action.toolTip()
+    window.dimensions.fields["depth"].setValue(0.45)
+    assert window.undo_action.text() == "&Undo" and window.undo_action.isEnabled()
+    assert window.undo_action.toolTip() == "Undo set depth"
+
+
+def test_status_messages_are_plain_text(window):
+    window.show_keys_help()
+    assert "<" not in window.statusBar().currentMessage()
+    window.document.notice.emit("<b>Held</b>: the point stays")
+    assert window.statusBar().currentMessage() == "Held: the point stays"
+
+
+def test_name_and_notes_in_the_header_are_one_undo_step_each(window, qtbot):
+    header = window.header
+    assert header.name_edit.text() == window.document.committed.name
+    header.name_edit.setFocus()
+    header.name_edit.selectAll()
+    qtbot.keyClicks(header.name_edit, "Heron II")
+    qtbot.keyClick(header.name_edit, Qt.Key.Key_Return)
+    assert window.document.committed.name == "Heron II"
+    header.notes_edit.setFocus()
+    header.notes_edit.moveCursor(QTextCursor.MoveOperation.End)
+    qtbot.keyClicks(header.notes_edit, " Bottom glassed 12 May.")
+    header.name_edit.setFocus()  # leaving the notes commits them
+    assert window.document.committed.notes.endswith(" Bottom glassed 12 May.")
+    assert window.document.undo_stack.count() == 2
+    window.document.undo_stack.undo()
+    assert "12 May" not in header.notes_edit.toPlainText()
+
+
+def test_trim_is_said_in_words(window):
+    hs = window.document.analysis.hydrostatics
+    words = window.results.units["trim"].text()
+    assert words in ("° by the bow", "° by the stern", "° level")
+    assert (hs.trim_deg > 0) == (words == "° by the bow") or words == "° level"
+    assert "-" not in window.results.values["trim"].text()
