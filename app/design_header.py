@@ -42,10 +42,10 @@ class DesignHeader(QWidget):
         layout = QHBoxLayout(self)
         layout.setContentsMargins(6, 4, 6, 2)
         layout.addWidget(name_label)
-        layout.addWidget(self.name_edit)
+        layout.addWidget(self.name_edit, 2)
         layout.addSpacing(12)
         layout.addWidget(notes_label)
-        layout.addWidget(self.notes_edit, 1)
+        layout.addWidget(self.notes_edit, 3)
         document.designChanged.connect(self.refresh)
         self.refresh()
 
@@ -55,6 +55,7 @@ class DesignHeader(QWidget):
         if not self.name_edit.isModified() or not self.name_edit.hasFocus():
             with QSignalBlocker(self.name_edit):
                 self.name_edit.setText(design.name)
+                self.name_edit.setCursorPosition(0)  # a long name shows its start
                 self.name_edit.setModified(False)
         if not self.notes_edit.hasFocus() and self.notes_edit.toPlainText() != design.notes:
             with QSignalBlocker(self.notes_edit):

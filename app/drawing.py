@@ -8,9 +8,32 @@ from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainterPath
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem, QGraphicsRectItem
 
+from hydro.units import UnitSystem, inches_text
+
 from app import style
 
-__all__ = ["OutlineItem", "VerticalBand", "segments", "polygon_path", "style_axes"]
+__all__ = [
+    "OutlineItem",
+    "VerticalBand",
+    "segments",
+    "polygon_path",
+    "style_axes",
+    "set_length_axis",
+]
+
+
+def set_length_axis(axis: pg.AxisItem, units: UnitSystem) -> None:
+    """Show an axis in metres as display lengths: mm, or inches with fractions (1 1/2)."""
+    axis.setScale(units.length_factor)
+    if units.imperial:
+        axis.tickStrings = _inch_ticks  # type: ignore[method-assign]
+    elif "tickStrings" in vars(axis):
+        del axis.tickStrings
+
+
+def _inch_ticks(values, scale, spacing) -> list[str]:
+    """Tick labels (values in metres) in inches with fractions to 1/16, never decimals."""
+    return [inches_text(v) for v in values]
 
 
 def style_axes(plot: pg.PlotWidget) -> None:

@@ -15,7 +15,7 @@ from PySide6.QtCore import Qt
 from hydro import StabilityCurve
 
 from app import style
-from app.drawing import VerticalBand, style_axes
+from app.drawing import VerticalBand, set_length_axis, style_axes
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
 
@@ -103,7 +103,7 @@ class GzPlot(pg.PlotWidget):
     def set_units(self, units: UnitSystem) -> None:
         self._units = units
         axis = self.getAxis("left")
-        axis.setScale(units.length_factor)
+        set_length_axis(axis, units)
         self.setLabel("left", f"GZ ({units.length})", color=style.INK)
 
     def show_curve(self, curve: StabilityCurve | None, steady: bool = False, open_boat: bool = True) -> None:

@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import replace
 
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QHBoxLayout, QLabel, QPushButton, QSizePolicy, QWidget
+from PySide6.QtWidgets import QHBoxLayout, QLabel, QPushButton, QWidget
 
 from hydro import HullSketch
 
@@ -46,9 +46,9 @@ class PointEntry(QWidget):
         self.remove = QPushButton("Remove point")
         self.remove.setToolTip("Remove the selected point (Delete)")
         self.remove.clicked.connect(self.document.remove_selected_point)
-        hint = QLabel("arrows nudge · Shift ×10 · Esc cancels a drag")
+        hint = QLabel("arrows nudge, Shift ×10")
+        hint.setToolTip("Arrow keys nudge the selected point, Shift ten times as far; Esc cancels a drag")
         hint.setStyleSheet(f"color: {style.INK_FAINT};")
-        hint.setSizePolicy(QSizePolicy.Policy.Ignored, QSizePolicy.Policy.Preferred)
         layout = QHBoxLayout(self)
         layout.setContentsMargins(6, 2, 6, 2)
         for w in (self.title, self.first_label, self.first, self.second_label, self.second, self.remove):
@@ -72,6 +72,8 @@ class PointEntry(QWidget):
         enabled = ref is not None and isinstance(hull, HullSketch)
         for w in (self.first, self.second, self.remove):
             w.setEnabled(enabled)
+        for box in (self.first, self.second):
+            box.set_units(self.options.units)
         if not enabled:
             self.title.setText("No point selected: click a handle")
             self.first_label.setText("")

@@ -173,6 +173,8 @@ class ResultsPanel(QWidget):
         grid.setColumnStretch(3, 1)
         self.quality = QLabel()
         self.quality.setStyleSheet(f"color: {style.INK_FAINT};")
+        self.quality.setWordWrap(True)  # never cut off; two lines kept, so no relayout
+        self.quality.setFixedHeight(2 * self.quality.fontMetrics().lineSpacing() + 2)
         self.gz_plot = GzPlot()
         legend = QLabel(LEGEND_HTML)
         legend.setWordWrap(True)

@@ -27,7 +27,7 @@ from hydro import Analysis, HullSketch
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import style_axes
+from app.drawing import set_length_axis, style_axes
 from app.editing import PointRef
 from app.view_options import ViewOptions
 
@@ -174,7 +174,7 @@ class SketchView(QWidget):
         units = self.options.units
         for side, name in (("bottom", self.x_title), ("left", self.y_title)):
             axis = self.plot.getAxis(side)
-            axis.setScale(units.length_factor)
+            set_length_axis(axis, units)
             axis.setLabel(f"{name} ({units.length})", color=style.INK)
         self._drawn = None
         self.refresh()
