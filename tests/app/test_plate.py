@@ -35,7 +35,7 @@ MARKS = PlateMarks(
     crew_shift_heel_deg=8.0,
     crew_shift_verdict="low gunwale stays 190 mm clear",
     crew_shift_arm=0.05,
-    level_trim_seats=(("bow paddler (student)", 1.0),),
+    level_trim_seats=(("bow paddler (junior)", 1.0),),
 )
 
 
