@@ -31,6 +31,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
+from app import palette
 from app.plate import PAPER_SIZES, marks_from_assessment, paint_plate
 from app.plate_content import IMPERIAL_SCALES, scale_label
 from app.plate_draw import CENTRE, LEFT, RIGHT, Canvas
@@ -46,15 +47,17 @@ from hydro.units import M_PER_IN, UnitSystem, system
 
 __all__ = ["PageSpec", "TileGrid", "plan_pages", "tile_grid", "write_pack_pdf", "BY_HAND"]
 
-INK = QColor(24, 28, 34)
-MUTED = QColor(92, 99, 110)
-CUT = QColor(20, 34, 56)
-STATION = QColor(120, 128, 140)
-JOINT = QColor(186, 64, 24)
-MARK = QColor(24, 110, 178)
-WARN = QColor(176, 40, 30)
-FILL = QColor(222, 232, 244)
-SHADE = QColor(238, 241, 245)
+# Colours from the palette the screen and the plate use (app/palette.py): the cut line is
+# the boat's ink, registration marks are plain text colour (blue means water on the plate)
+INK = QColor(palette.PRINT_TEXT)
+MUTED = QColor(palette.PRINT_MUTED)
+CUT = QColor(palette.INK)
+STATION = QColor(palette.PRINT_STATION)
+JOINT = QColor(palette.JOINT)
+MARK = QColor(palette.PRINT_TEXT)
+WARN = QColor(palette.WARNING)
+FILL = QColor(palette.PRINT_FILL)
+SHADE = QColor(palette.PRINT_SHADE)
 
 MARGIN_MM = 10.0
 HEADER_MM = 16.0

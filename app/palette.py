@@ -31,8 +31,11 @@ HEELING_ARM = "#009e73"
 WALL_SIDED = "#cc79a7"
 #: Crew seats, and the seat positions for level trim.
 CREW = "#7b4a2a"
-#: Warnings: the safety cautions' bullets, a load the hull cannot carry.
+#: Warnings: the safety cautions' bullets, a load the hull cannot carry, a panel strained
+#: past the limit.
 WARNING = "#8a1c14"
+#: Build pack: where two sheets are joined (scarf or butt) on a panel.
+JOINT = "#8c7a00"
 
 #: (colour, what it means) for the README legend and the tests.
 MEANINGS: dict[str, str] = {
@@ -44,7 +47,8 @@ MEANINGS: dict[str, str] = {
     HEELING_ARM: "the crew-shift heeling arm and the heel where it meets GZ",
     WALL_SIDED: "the wall-sided estimate of GZ (dashed)",
     CREW: "crew seats and the seat positions for level trim",
-    WARNING: "safety cautions and loads the hull cannot carry",
+    WARNING: "safety cautions, loads the hull cannot carry, panels strained past the limit",
+    JOINT: "build pack: joints between sheets on a panel",
 }
 
 # -- neutral tones (carry no meaning) -----------------------------------------------------
@@ -64,6 +68,8 @@ PRINT_RULE = "#aab0ba"  #: plate rules and station lines
 PRINT_BAND = "#eef1f5"  #: plate panel bands
 PRINT_SHADE = "#e2e4e8"
 PRINT_STRIPE = "#f6f7f9"
+PRINT_STATION = "#78808c"  #: build pack: station and mark lines on the pieces
+PRINT_FILL = "#dee8f4"  #: build pack: the pieces on the sheet layouts
 
 #: GM state colours (background, text); the words and glyphs live in the views.
 STATE_COLOURS = {
