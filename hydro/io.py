@@ -16,7 +16,7 @@ import os
 import re
 import stat
 from pathlib import Path
-from typing import Any, Iterable
+from typing import Any, Iterable, Iterator
 
 import numpy as np
 
@@ -473,16 +473,21 @@ def _is_number(text: str) -> bool:
     return True
 
 
-def _csv_rows(text: str, name: str) -> list[tuple[int, list[str]]]:
-    """(line number, cells) of the rows that are not blank or '#' comments."""
-    try:
-        return [
-            (n, row)
-            for n, row in enumerate(csv.reader(io.StringIO(text)), start=1)
-            if row and "".join(row).strip() and not row[0].lstrip().startswith("#")
-        ]
-    except csv.Error as e:
-        raise DesignFileError(f"{name}: not a readable CSV file ({e})") from None
+def _csv_rows(text: str, name: str) -> Iterator[tuple[int, list[str]]]:
+    """(line number, cells) of the rows that are not blank or '#' comments, one at a
+    time (so a reader can stop at a limit without parsing the rest)."""
+    rows = csv.reader(io.StringIO(text))
+    n = 0
+    while True:
+        try:
+            row = next(rows)
+        except StopIteration:
+            return
+        except csv.Error as e:
+            raise DesignFileError(f"{name}: not a readable CSV file ({e})") from None
+        n += 1
+        if row and "".join(row).strip() and not row[0].lstrip().startswith("#"):
+            yield n, row
 
 
 def read_offsets(path: str | os.PathLike[str]) -> Stations:
@@ -494,11 +499,10 @@ def read_offsets(path: str | os.PathLike[str]) -> Stations:
     are checked against :mod:`hydro.limits` while reading.
     """
     name = Path(path).name
-    rows = _csv_rows(read_text(path), name)
-    if rows and not _is_number(rows[0][1][0]):
-        rows = rows[1:]  # header
     groups: list[tuple[float, list[tuple[float, float]]]] = []
-    for n, row in rows:
+    for n, row in _csv_rows(read_text(path), name):
+        if not groups and not _is_number(row[0]):
+            continue  # the header
         where = f"{name} line {n}"
         if len(row) < 3:
             raise DesignFileError(f"{where}: expected three columns x, y, z")

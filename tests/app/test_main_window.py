@@ -206,3 +206,28 @@ def test_new_design_starts_clean(qtbot):
     assert window.document.path is None and not window.document.is_modified
     window.document.recompute_now()
     assert window.document.analysis.status == "ok"
+
+
+def test_a_bad_file_on_the_command_line_starts_a_new_design(tmp_path):
+    from app.main import create_window
+
+    bad = tmp_path / "bad.json"
+    bad.write_text('{"format": "hullwright.design", "version": 2, "hull": {"offsets": [5]}}')
+    window, error = create_window([str(bad)])
+    try:
+        assert "design.hull.offsets[0] must be an object" in error
+        assert window.document.committed.name == "New hull" and window.document.path is None
+    finally:
+        window.recovery.close()
+        window.deleteLater()
+
+
+def test_edits_beyond_the_limits_are_refused(qtbot):
+    window = _window(qtbot)
+    doc = window.document
+    crew = doc.committed.loads.crew
+    heavy = replace(doc.committed.loads, crew=(replace(crew[0], mass=400.0), *crew[1:]))
+    notices = []
+    doc.notice.connect(notices.append)
+    assert not doc.edit(replace(doc.committed, loads=heavy), "heavy")
+    assert "more than one person" in notices[-1]
