@@ -16,7 +16,7 @@ from hydro.hull import HullSketch, scale_breadth
 from hydro.loads import Loads, shell_panels, weight_build_up
 from hydro.sections import build_section_table
 from hydro.stability import Hydrostatics, upright
-from hydro.wording import beam_text
+from hydro.wording import beam_text, trim_text
 
 #: Narrowest and widest beam the aid tries, as factors on the present beam.
 BEAM_FACTORS_LOW = 0.3
@@ -129,7 +129,11 @@ class TrimResult:
     trim_after_deg: float | None
     freeboard_aft: float | None
     freeboard_fore: float | None
-    message: str
+
+    @property
+    def message(self) -> str:
+        """One line, metric (see :func:`hydro.wording.trim_text`)."""
+        return trim_text(self)
 
 
 def level_trim(design: Design, crew_index: int | None = 0, item_index: int | None = None,
@@ -184,8 +188,7 @@ def level_trim(design: Design, crew_index: int | None = 0, item_index: int | Non
             break
         step *= 1.6
     if not found:
-        return TrimResult(what, idx, x_now, None, here.trim_deg, None, None, None,
-                          f"Moving {what} alone cannot level the boat.")
+        return TrimResult(what, idx, x_now, None, here.trim_deg, None, None, None)
     x, hs = x_now, here
     for _ in range(60):
         if abs(hs.trim_deg) <= tolerance_deg:
@@ -201,9 +204,7 @@ def level_trim(design: Design, crew_index: int | None = 0, item_index: int | Non
         else:
             hi, f_hi = x, hs.trim_deg
     fb = hs.freeboard
-    return TrimResult(what, idx, x_now, x, here.trim_deg, hs.trim_deg, float(fb[0]), float(fb[-1]),
-                      f"Put {what} at x = {x:.2f} m (now {x_now:.2f} m): trim {hs.trim_deg:+.2f} deg, "
-                      f"freeboard aft {fb[0] * 1000:.0f} mm, fore {fb[-1] * 1000:.0f} mm.")
+    return TrimResult(what, idx, x_now, x, here.trim_deg, hs.trim_deg, float(fb[0]), float(fb[-1]))
 
 
 def apply_level_trim(design: Design, result: TrimResult, is_item: bool = False) -> Design:

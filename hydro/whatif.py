@@ -9,7 +9,7 @@ from dataclasses import dataclass, replace
 from hydro.design import Design, analyse_stations, check_context
 from hydro.loads import Material
 from hydro.stability import Analysis, Status
-from hydro.wording import whatif_case
+from hydro.wording import swamp_text, whatif_case
 
 __all__ = ["MATERIAL_SWAMPED_DENSITY", "SensitivityRow", "SwampResult", "sensitivity", "swamping"]
 
@@ -116,7 +116,11 @@ class SwampResult:
     reserve_fraction: float
     swamped_net_buoyancy: float
     floats_swamped: bool | None
-    message: str
+
+    @property
+    def message(self) -> str:
+        """Plain words, metric (see :func:`hydro.wording.swamp_text`)."""
+        return swamp_text(self)
 
 
 def _swamped_density(m: Material) -> float | None:
@@ -147,15 +151,5 @@ def swamping(design: Design, analysis: Analysis | None = None) -> SwampResult:
             net += line.mass * (rho / dens - 1.0) if dens else -line.mass
         elif line.kind == "item":
             net -= line.mass
-    closed = not design.settings.open_boat
-    if closed:
-        floats = None
-        msg = (f"Reserve buoyancy {rho * reserve:.0f} kg ({100 * reserve / total:.0f} % of the hull). "
-               "Closed hull: it cannot fill while its deck and seams hold; still wear life jackets.")
-    else:
-        floats = net > 0
-        msg = f"Reserve buoyancy to the gunwale {rho * reserve:.0f} kg ({100 * reserve / total:.0f} % of the hull). "
-        msg += ("Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
-                if floats else
-                "Swamped, the hull sinks: there is no flotation but the crew's life jackets - wear them.")
-    return SwampResult(reserve, rho * reserve, reserve / total if total else 0.0, net, floats, msg)
+    floats = None if not design.settings.open_boat else net > 0  # a closed hull cannot fill
+    return SwampResult(reserve, rho * reserve, reserve / total if total else 0.0, net, floats)
