@@ -71,7 +71,7 @@ MATERIAL_PRESETS: dict[str, tuple[float, str]] = {
     "glass/epoxy sheathing": (0.4, "from memory, ~200 g/m2 cloth hand lay-up"),
 }
 
-#: Thickness of one layer of each preset (m); sheet stock from supplier listings, the
+#: Thickness of one layer of each preset (m); sheet stock as sold (common practice), the
 #: thin coatings from memory.  A material at least SHEET_MIN_THICKNESS_M thick is cut
 #: from sheets (the build pack lays it out); thinner ones are coatings.
 MATERIAL_THICKNESS_M: dict[str, float] = {

@@ -39,7 +39,8 @@ __all__ = [
 
 FloatArray = NDArray[np.float64]
 
-#: Stock sheet sizes (width, length) in metres: plywood and board suppliers' sizes.
+#: Stock sheet sizes (width, length) in metres, as plywood and board are sold (common
+#: practice).
 SHEET_PRESETS: dict[str, tuple[float, float]] = {
     "1220x2440 mm": (1.22, 2.44),
     "1250x2500 mm": (1.25, 2.50),
