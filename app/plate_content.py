@@ -226,7 +226,7 @@ def offset_columns(lines: HullLines, rows: Sequence[int], u: UnitSystem) -> list
     ]
     if not lines.chines:
         for wl in waterline_heights(float(lines.sheer_z.min()), u):
-            label = f"WL {round(u.to_length(wl), 2):g}"
+            label = f"WL {u.length_text(wl, unit=False)}"
             vals = tuple(half_breadth_at(lines.halves[i], wl) for i in rows)
             cols.append(Column("Half-breadth at waterline", label, vals))
     return cols
@@ -247,7 +247,7 @@ def figure_rows(a: Analysis, u: UnitSystem, marks: PlateMarks) -> list[tuple[str
     if abs(h.trim_deg) < 0.05:
         trim = "level"
     else:
-        trim = f"{abs(h.trim_deg):.2f}° {'bow' if h.trim_deg > 0 else 'stern'} down ({trim_len})"
+        trim = f"{abs(h.trim_deg):.2f}° by the {'bow' if h.trim_deg > 0 else 'stern'} ({trim_len})"
     gm_word = "positive" if h.gm > 0 else "NEGATIVE: will not stay upright"
     rows += [
         (

@@ -617,7 +617,10 @@ class Sheet:
             else f"every {ordinal(step)} of {hl.x.size} stations"
         )
         aside = (
-            f"{u.length}; half-breadths from the centreline, heights above the base line; {which}"
+            f"ft-in-eighths (2-04-3 = 2' 4 3/8\"), from centreline and base; {which}"
+            if u.imperial
+            else f"{u.length}; half-breadths from the centreline, heights above the base line; "
+            f"{which}"
         )
         top = self.heading(x, y, w, "Table of offsets", aside)
         cols = [
@@ -661,7 +664,7 @@ class Sheet:
                 text = (
                     "—"
                     if v is None
-                    else (str(int(v)) if j == 0 else u.length_text(v, unit=False))
+                    else (str(int(v)) if j == 0 else u.offset_text(v))
                 )
                 c.text(x + j * col_w, yy, col_w - 2.5, lh, text, size, align=RIGHT, bold=(j == 0))
             yy += lh
@@ -819,7 +822,10 @@ class Sheet:
         if y_hi <= y_lo:
             y_hi = y_lo + ystep
         ticks = [y_lo + k * ystep for k in range(round((y_hi - y_lo) / ystep) + 1)]
-        ylabel_w = max(c.text_width(f"{v:g}", t.small) for v in ticks) + 1.5
+        def tick_text(v: float) -> str:  # inches with fractions, never decimals
+            return u.length_text(u.from_length(v), unit=False) if u.imperial else f"{v:g}"
+
+        ylabel_w = max(c.text_width(tick_text(v), t.small) for v in ticks) + 1.5
         legend = [
             (HULL, Qt.PenStyle.SolidLine, 0.55, "GZ from heeled equilibrium, free to trim"),
             (WALL_SIDED, Qt.PenStyle.DashLine, 0.25, "wall-sided estimate (holds at small heel only)"),
@@ -872,7 +878,7 @@ class Sheet:
         for v in ticks:
             zero = abs(v) < 1e-12
             c.segment(px0, PY(v), px1, PY(v), 0.3 if zero else 0.12, INK if zero else RULE)
-            c.text(x, PY(v) - lh / 2, ylabel_w, lh, f"{v:g}", t.small, align=RIGHT)
+            c.text(x, PY(v) - lh / 2, ylabel_w, lh, tick_text(v), t.small, align=RIGHT)
         c.segment(px0, py0, px0, py1, 0.3)
         axis = "heel (°, + to starboard)" if hmin < 0 else "heel (°)"
         c.text(px1 - 50, py1 + 0.6 + lh, 50, lh, axis, t.small, align=RIGHT, color=MUTED)
@@ -1034,7 +1040,7 @@ class Sheet:
         water = (
             f"{rho:.1f} kg/m³"
             if u.name == "metric"
-            else f"{rho * LB_FT3_PER_KG_M3:.2f} lb/ft³ ({rho:.1f} kg/m³)"
+            else f"{rho * LB_FT3_PER_KG_M3:.1f} lb/ft³"
         )
         if isinstance(d.water, str) and d.water.strip().lower() in ("fresh", "sea"):
             water += f", {d.water.strip().lower()} water"
