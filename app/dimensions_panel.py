@@ -121,10 +121,11 @@ class DimensionsPanel(QWidget):
             name, _ = self._rows[key]
             name.setVisible(value is not None)
             box.setVisible(value is not None)
+            if isinstance(box, LengthBox):
+                box.set_units(units)
             if value is None:
                 continue
             if isinstance(box, LengthBox):
-                box.set_units(units)
                 box.set_metres(value)
             else:
                 with QSignalBlocker(box):

@@ -24,6 +24,7 @@ __all__ = [
     "beam_text",
     "swamp_text",
     "trim_text",
+    "trim_words",
     "badge_words",
     "list_cell",
     "heel_margins",
@@ -242,13 +243,27 @@ def list_cell(list_deg: float | None) -> str:
     return f"{abs(list_deg):.1f} {'stbd' if list_deg > 0 else 'port'}"
 
 
+def trim_words(trim_deg: float) -> str:
+    """A trim in words, no sign: ``level``, ``0.74° by the bow``, ``1.3° by the stern``.
+
+    >>> trim_words(0.74), trim_words(-1.3), trim_words(-0.001)
+    ('0.74° by the bow', '1.30° by the stern', 'level')
+    """
+    if abs(trim_deg) < 0.005:  # shows as 0.00
+        return "level"
+    return f"{abs(trim_deg):.2f}° by the {'bow' if trim_deg > 0 else 'stern'}"
+
+
 def trim_text(t: TrimResult, u: UnitSystem = METRIC) -> str:
     """Where to seat someone (or put an item) so the boat floats level."""
     if t.x_after is None:
-        return f"Moving {t.what} alone cannot float the boat level (trim now {t.trim_before_deg:+.2f}°)."
+        return (
+            f"Moving {t.what} alone cannot float the boat level "
+            f"(trim now {trim_words(t.trim_before_deg)})."
+        )
     return (
         f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
-        f"trim {t.trim_after_deg:+.2f}° (now {t.trim_before_deg:+.2f}°), freeboard aft "
+        f"trim {trim_words(t.trim_after_deg)} (now {trim_words(t.trim_before_deg)}), freeboard aft "
         f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
     )
 
