@@ -4,7 +4,7 @@
 a drag, the file path, the undo stack and the latest analysis.
 
 Edits
-    ``preview`` (during a drag: no undo entry, a rough analysis), then ``finish_preview``
+    ``preview`` (during a drag: no undo entry), then ``finish_preview``
     (one undo step) or ``cancel_preview``; ``edit`` for everything else (numeric entry,
     nudges, loads, add/delete).  Each is checked first; an impossible design is refused
     (or, during a drag, held at the last good one) with a message on ``notice``.
@@ -13,17 +13,18 @@ Frames
     Every change restarts one single-shot zero-delay timer.  When the event loop comes
     round, the newest preview is checked and shown (``designChanging``) and the design
     on screen is analysed once, so the views and the readout repaint together and older
-    requests are simply dropped (newest edit wins).  While dragging, the analysis is
-    rough: :data:`ROUGH_STATION_COUNT` stations and a heel step of at least
-    :data:`ROUGH_HEEL_STEP_DEG` degrees; on release the full analysis follows.  Full
-    analyses are cached, so undo and redo show at once.
+    requests are simply dropped (newest edit wins).  Every frame of a drag is the exact
+    analysis (the design's own stations and heel angles), started from the previous
+    frame's floating positions, so it takes a few Newton steps (the figures agree with
+    a fresh analysis to the solver's tolerance); a committed design is analysed from
+    scratch, as the command line does.  Analyses are cached, so undo and redo show at
+    once.
 """
 
 from __future__ import annotations
 
 from collections import OrderedDict
 from dataclasses import replace
-from functools import lru_cache
 from pathlib import Path
 
 from PySide6.QtCore import QObject, QTimer, Signal
@@ -42,30 +43,22 @@ from hydro import (
     SectionShape,
     HullwrightError,
     analyse,
-    analyse_stations,
     generate_stations,
     load_design,
     save_design,
 )
 from hydro import limits
-from hydro.curves import sample_polyline
-from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
 from hydro.loads import validate_loads
 
 from app.editing import EditRefused, PointRef, delete_point
 
 __all__ = [
-    "ROUGH_STATION_COUNT",
-    "ROUGH_HEEL_STEP_DEG",
     "HullDocument",
     "SnapshotCommand",
     "check_design",
-    "rough_analysis",
     "starter_design",
 ]
 
-ROUGH_STATION_COUNT = 21
-ROUGH_HEEL_STEP_DEG = 3.0
 _CACHE_SIZE = 16
 
 
@@ -102,43 +95,6 @@ def starter_design() -> Design:
         bottom_thickness=0.014,
     )
     return Design(name="New hull", hull=hull, loads=loads)
-
-
-def _presampled(sketch: HullSketch) -> HullSketch:
-    """The sketch with smooth section shapes replaced by their sampled polylines.
-
-    The engine samples a smooth shape again at every station; sampling it once gives
-    the same stations for a single shape and nearly the same where shapes blend.
-    """
-    return replace(sketch, sections=_sampled_sections(sketch.sections))
-
-
-@lru_cache(maxsize=8)
-def _sampled_sections(sections: tuple[SectionShape, ...]) -> tuple[SectionShape, ...]:
-    """Smooth shapes as sampled polylines (cached: most drags leave the sections alone)."""
-    return tuple(
-        replace(
-            s,
-            points=tuple(map(tuple, sample_polyline(s.points, True, SMOOTH_SAMPLES_PER_SPAN))),
-            smooth=False,
-        )
-        if s.smooth
-        else s
-        for s in sections
-    )
-
-
-def rough_analysis(design: Design) -> Analysis:
-    """A quick analysis for live feedback while dragging (fewer stations and angles)."""
-    settings = replace(
-        design.settings, heel_step_deg=max(design.settings.heel_step_deg, ROUGH_HEEL_STEP_DEG)
-    )
-    if isinstance(design.hull, HullSketch):
-        count = min(ROUGH_STATION_COUNT, design.hull.station_count)
-        stations = generate_stations(_presampled(design.hull), count=count)
-    else:
-        stations = design.hull
-    return analyse_stations(stations, design.loads, design.water_density, settings)
 
 
 class SnapshotCommand(QUndoCommand):
@@ -209,9 +165,8 @@ class HullDocument(QObject):
         self._selection: PointRef | None = None
         self._analysis: Analysis | None = None
         self._analysed: Design | None = None
-        self._analysis_rough = False
+        self._analysis_live = False
         self._analysis_error = ""
-        self._rough_requested = False
         self._cache: OrderedDict[Design, Analysis] = OrderedDict()
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._on_clean_changed)
@@ -221,7 +176,7 @@ class HullDocument(QObject):
         self._timer.timeout.connect(self._on_frame)
         self._pending: tuple[Design, str] | None = None
         self._last_drag_notice = ""
-        self._schedule(rough=False)
+        self._schedule()
 
     def _on_clean_changed(self, _clean: bool) -> None:
         self.fileChanged.emit()
@@ -255,9 +210,9 @@ class HullDocument(QObject):
         return self._analysis
 
     @property
-    def analysis_is_rough(self) -> bool:
-        """True while the shown analysis is the quick one made during a drag."""
-        return self._analysis_rough
+    def analysis_is_live(self) -> bool:
+        """True while the shown analysis is of a drag in progress (exact all the same)."""
+        return self._analysis_live
 
     @property
     def analysis_error(self) -> str:
@@ -307,20 +262,24 @@ class HullDocument(QObject):
         self._timer.start()
 
     def _show_pending(self) -> None:
-        """Show the newest preview with its rough analysis (which is also its check)."""
+        """Show the newest preview with its analysis (which is also its check).
+
+        The solver starts from the previous frame's floating positions: the figures
+        are the exact ones, in a few Newton steps.
+        """
         (design, note), self._pending = self._pending, None
         if design == self.design:
             self._say(f"Held: {note}" if note else "")
             return
         try:
-            result = rough_analysis(design)
+            result = analyse(design, start=self._analysis)
         except HullwrightError as e:
             self._say(f"Held: {e}")
             return
         self._say(f"Held: {note}" if note else "")
         self._preview = design
         self.designChanging.emit()
-        self._publish(result, design, rough=True)
+        self._publish(result, design, live=True)
 
     def _say(self, text: str) -> None:
         """A drag notice, sent only when it changes (the status bar is slow to repaint)."""
@@ -340,7 +299,7 @@ class HullDocument(QObject):
         after, self._preview = self._preview, None
         if after == self._committed:
             self.designChanged.emit()
-            self._schedule(rough=False)
+            self._schedule()
             return
         self.undo_stack.push(SnapshotCommand(self, self._committed, after, text))
 
@@ -352,7 +311,7 @@ class HullDocument(QObject):
         self._preview = None
         self.notice.emit("Drag cancelled")
         self.designChanged.emit()
-        self._schedule(rough=False)
+        self._schedule()
 
     def edit(self, design: Design, text: str, merge_key: object | None = None) -> bool:
         """Commit ``design`` as one undo step; False (and a notice) if impossible."""
@@ -385,7 +344,7 @@ class HullDocument(QObject):
         self._preview = None
         self._drop_stale_selection()
         self.designChanged.emit()
-        self._schedule(rough=False)
+        self._schedule()
 
     def _drop_stale_selection(self) -> None:
         if self._selection is not None and not self._exists(self._selection):
@@ -403,7 +362,7 @@ class HullDocument(QObject):
         self.select(None)
         self.designChanged.emit()
         self.fileChanged.emit()
-        self._schedule(rough=False)
+        self._schedule()
 
     def open(self, path: str | Path) -> None:
         """Open a design file; raises :class:`hydro.DesignFileError` and changes nothing."""
@@ -428,8 +387,7 @@ class HullDocument(QObject):
 
     # ------------------------------------------------------------------ analysis
 
-    def _schedule(self, rough: bool) -> None:
-        self._rough_requested = rough
+    def _schedule(self) -> None:
         self._timer.start()
 
     def recompute_now(self) -> None:
@@ -446,18 +404,19 @@ class HullDocument(QObject):
 
     def _run_analysis(self) -> None:
         design = self.design
-        rough = self._rough_requested and self._preview is not None
-        if design is self._analysed and rough == self._analysis_rough:
+        live = self._preview is not None
+        if design is self._analysed and live == self._analysis_live:
             return  # nothing new
         try:
-            if rough:
-                result = rough_analysis(design)
-            else:
-                result = self._cache.get(design) or analyse(design)
-                self._cache[design] = result
-                self._cache.move_to_end(design)
-                while len(self._cache) > _CACHE_SIZE:
-                    self._cache.popitem(last=False)
+            result = self._cache.get(design)
+            if result is None and live:  # a drag frame: from the latest floating positions
+                result = analyse(design, start=self._analysis)
+            elif result is None:  # a committed design: from scratch, as the command line does
+                result = analyse(design)
+            self._cache[design] = result
+            self._cache.move_to_end(design)
+            while len(self._cache) > _CACHE_SIZE:
+                self._cache.popitem(last=False)
         except Exception as e:  # the boundary: any failure is shown in words
             self._analysis = None
             self._analysed = None
@@ -466,11 +425,11 @@ class HullDocument(QObject):
             )
             self.analysisFailed.emit(self._analysis_error)
             return
-        self._publish(result, design, rough)
+        self._publish(result, design, live)
 
-    def _publish(self, result: Analysis, design: Design, rough: bool) -> None:
+    def _publish(self, result: Analysis, design: Design, live: bool) -> None:
         self._analysis = result
         self._analysed = design
-        self._analysis_rough = rough
+        self._analysis_live = live
         self._analysis_error = ""
         self.analysisReady.emit(result)

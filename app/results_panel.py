@@ -27,7 +27,7 @@ from hydro.safety import SHORT_CAUTION
 from hydro.sections import build_section_table
 
 from app import style
-from app.document import ROUGH_HEEL_STEP_DEG, ROUGH_STATION_COUNT, HullDocument
+from app.document import HullDocument
 from app.gz_plot import LEGEND_HTML, GzPlot
 from hydro.units import UnitSystem
 from app.view_options import ViewOptions
@@ -228,16 +228,10 @@ class ResultsPanel(QWidget):
         self._show_status(analysis, state)
         self.gz_plot.show_curve(
             analysis.curve,
-            steady=self.document.analysis_is_rough,
+            steady=self.document.analysis_is_live,
             open_boat=self.document.design.settings.open_boat,
         )
-        if self.document.analysis_is_rough:
-            self.quality.setText(
-                f"Rough figures while dragging ({ROUGH_STATION_COUNT} stations, "
-                f"{ROUGH_HEEL_STEP_DEG:g}° steps); exact on release."
-            )
-        else:
-            self.quality.setText("Exact figures for the design as it stands.")
+        self.quality.setText("Exact figures for the design as it stands.")
 
     def show_failure(self, message: str) -> None:
         """The design cannot be analysed: say why, blank the figures."""

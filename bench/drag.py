@@ -1,16 +1,19 @@
 """App speed: real mouse drags offscreen; prints ``name: value`` lines (milliseconds).
 
-    python bench/drag.py                      # the paper canoe sample (41 stations)
-    python bench/drag.py DESIGN.json          # another design
-    python bench/drag.py --all                # every sample, one line each, then the summary
+    python bench/drag.py                      # the paper canoe and the raft samples
+    python bench/drag.py DESIGN.json ...      # other designs
+    python bench/drag.py --all                # every sample
 
-``drag_frame_ms``: median over the mouse moves of a drag of a plan handle, from sending
-the mouse-move event to the end of the repaint that shows the recomputed readout
-(event handling, document preview, rough analysis, table and plot update, painting of
-every view that changed).  ``drag_frame_p90_ms`` is the 90th percentile.
-``release_ms``: from the button release to the repainted exact figures (full analysis).
+``drag_frame_ms``: median over the mouse moves of a drag of a plan handle on each design
+(the frames of all the drags together), from sending the mouse-move event to the end of
+the repaint that shows the recomputed readout (event handling, document preview, the
+exact analysis, table and plot update, painting of every view that changed).
+``drag_frame_p90_ms`` is the 90th percentile.  One line per design gives its own figures.
+``release_ms``: from the button release to the repainted figures (the first design).
 ``startup_ms``: from the first line of this script (before Qt is imported) to the
 window shown with its first figures painted; the interpreter's own start is not in it.
+``load_average``: the machine's 1-minute load when the script ends (shared machines
+give slower, noisier figures under load).
 The drag starts once the builder's checks (run in the background after loading) are
 done; a drag that starts during them stops them at their next step.
 """
@@ -45,7 +48,7 @@ from hydro.runtime import keep_freed_memory  # noqa: E402
 from app.main import create_window  # noqa: E402
 
 SAMPLES = Path(__file__).resolve().parents[1] / "sample_hulls"
-DEFAULT = SAMPLES / "paper-loon-canoe.json"
+DEFAULT = (SAMPLES / "paper-loon-canoe.json", SAMPLES / "drift-lab-raft.json")
 MOVES = 59
 
 
@@ -117,6 +120,7 @@ def run(path: Path) -> dict[str, float]:
     window.close()
     return {
         "shown": shown,
+        "frames": frames,
         "drag_frame_ms": 1000 * statistics.median(frames),
         "drag_frame_p90_ms": 1000 * statistics.quantiles(frames, n=10)[-1],
         "release_ms": 1000 * release,
@@ -129,21 +133,24 @@ def main() -> None:
     qt_app.setStyle("Fusion")
     pg.setConfigOptions(antialias=True)  # as the app
     keep_freed_memory()
-    main_path = Path(args[0]) if args else DEFAULT
-    result = run(main_path)
-    startup_ms = 1000 * (result["shown"] - T0)
     if "--all" in sys.argv:
-        for path in sorted(SAMPLES.glob("*.json")):
-            other = run(path)
-            print(
-                f"drag_frame_ms[{path.stem}]: {other['drag_frame_ms']:.1f}  "
-                f"(p90 {other['drag_frame_p90_ms']:.1f}, release {other['release_ms']:.1f})"
-            )
-    print(f"design: {main_path.name}")
-    print(f"drag_frame_ms: {result['drag_frame_ms']:.1f}")
-    print(f"drag_frame_p90_ms: {result['drag_frame_p90_ms']:.1f}")
-    print(f"release_ms: {result['release_ms']:.1f}")
+        paths = sorted(SAMPLES.glob("*.json"))
+    else:
+        paths = [Path(a) for a in args] if args else list(DEFAULT)
+    results = [run(path) for path in paths]
+    startup_ms = 1000 * (results[0]["shown"] - T0)
+    frames = [f for r in results for f in r["frames"]]
+    for path, r in zip(paths, results):
+        print(
+            f"drag_frame_ms[{path.stem}]: {r['drag_frame_ms']:.1f}  "
+            f"(p90 {r['drag_frame_p90_ms']:.1f}, release {r['release_ms']:.1f})"
+        )
+    print(f"designs: {', '.join(p.name for p in paths)}")
+    print(f"drag_frame_ms: {1000 * statistics.median(frames):.1f}")
+    print(f"drag_frame_p90_ms: {1000 * statistics.quantiles(frames, n=10)[-1]:.1f}")
+    print(f"release_ms: {results[0]['release_ms']:.1f}")
     print(f"startup_ms: {startup_ms:.0f}")
+    print(f"load_average: {os.getloadavg()[0]:.2f}")
 
 
 if __name__ == "__main__":

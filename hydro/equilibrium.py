@@ -24,7 +24,7 @@ from numpy.typing import NDArray
 
 from hydro.sections import Cut, HeelFrame, SectionTable, cut
 
-__all__ = ["Equilibrium", "solve_equilibrium", "level_waterline"]
+__all__ = ["Equilibrium", "solve_equilibrium", "level_waterline", "follow_branch", "heel_neighbours"]
 
 FloatArray = NDArray[np.float64]
 
@@ -34,7 +34,10 @@ TOLERANCE = 1e-10
 FAST_ITERATIONS = 8
 MAX_ITERATIONS = 60
 #: A Newton step smaller than this fraction of the hull's size ends the fast path.
-STEP_DONE = 1e-5
+STEP_DONE = 1e-6
+#: A heel's solution continues its neighbour's when one Newton step from the neighbour
+#: lands nearer to it than this fraction of the step (Newton converges there).
+CONTINUITY = 0.5
 
 
 @dataclass(frozen=True, eq=False)
@@ -279,6 +282,7 @@ def solve_equilibrium(
     h0: FloatArray,
     tau0: FloatArray,
     free_trim: bool = True,
+    safeguard: bool = True,
 ) -> Equilibrium:
     """Solve volume (and, with ``free_trim``, pitch) equilibrium at every heel angle.
 
@@ -290,6 +294,8 @@ def solve_equilibrium(
     eta_g : (A,) height of G in each heeled frame (m)
     h0, tau0 : (A,) starting waterline height and trim slope
     free_trim : solve for trim as well; otherwise keep ``tau0``
+    safeguard : with free trim, take the angles Newton's method does not settle to the
+        safeguarded path (slow but sure); if False they are left not converged
     """
     h = np.array(h0, dtype=float)
     tau = np.array(tau0, dtype=float)
@@ -299,7 +305,7 @@ def solve_equilibrium(
         h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau, FAST_ITERATIONS)
         c = cut(table, frame, _levels(table, h, tau))
         ok = _accepted(table, frame, c, volume, x_g, eta_g, tau, tau_start)
-        if not ok.all():
+        if safeguard and not ok.all():
             idx = np.flatnonzero(~ok)
             h_s, t_s, ok_s, c_s = _settle(
                 table, frame.take(idx), volume, x_g, eta_g[idx],
@@ -324,3 +330,115 @@ def solve_equilibrium(
         cut=c,
         converged=ok,
     )
+
+
+def heel_neighbours(phi: FloatArray) -> NDArray[np.intp]:
+    """For each heel angle, the index of the next angle towards the one nearest upright.
+
+    The angle nearest zero (the anchor) gets -1.  Following the neighbours outwards
+    from the anchor visits every angle in order of heel, on both sides.
+
+    >>> heel_neighbours(np.radians([0.0, 10.0, 20.0, -10.0])).tolist()
+    [-1, 0, 1, 0]
+    """
+    order = np.argsort(phi, kind="stable")
+    a = int(np.argmin(np.abs(phi[order])))
+    nb = np.empty(phi.size, dtype=np.intp)
+    nb[order[a]] = -1
+    nb[order[a + 1 :]] = order[a:-1]
+    nb[order[:a]] = order[1 : a + 1]
+    return nb
+
+
+def _newton_from(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    h: FloatArray, tau: FloatArray,
+) -> tuple[FloatArray, FloatArray]:
+    """One joint Newton step from (h, tau) at every angle (NaN where the Jacobian is singular)."""
+    r = _residual(table, frame, volume, x_g, eta_g, h, tau)
+    det = r.j11 * r.j22 - r.j12 * r.j21
+    good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
+    safe = np.where(good, det, 1.0)
+    dh = (-r.f1 * r.j22 + r.f2 * r.j12) / safe
+    dtau = (r.f1 * r.j21 - r.f2 * r.j11) / safe
+    return np.where(good, h + dh, np.nan), np.where(good, tau + dtau, np.nan)
+
+
+def _with(eq: Equilibrium, i: int, one: Equilibrium) -> Equilibrium:
+    """``eq`` with angle ``i`` replaced by the single-angle solution ``one``."""
+    fields = {}
+    for name in ("h", "tau", "volume", "x_b", "xi_b", "eta_b", "waterplane", "converged"):
+        values = getattr(eq, name).copy()
+        values[i] = getattr(one, name)[0]
+        fields[name] = values
+    parts = {}
+    for name in ("area", "q_xi", "q_eta", "breadth", "breadth_m1", "breadth_m2"):
+        values = getattr(eq.cut, name).copy()
+        values[i] = getattr(one.cut, name)[0]
+        parts[name] = values
+    return Equilibrium(cut=Cut(**parts), **fields)
+
+
+def follow_branch(
+    table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
+    eq: Equilibrium, h_anchor: FloatArray, tau_anchor: FloatArray,
+    neighbours: NDArray[np.intp] | None = None,
+) -> tuple[Equilibrium, bool]:
+    """Make the free-trim solutions one branch, continued heel by heel from upright.
+
+    Solved all at once, a heel angle can land on another equilibrium than its
+    neighbour's (a strongly trimmed boat found standing on end), and the GZ curve
+    jumps.  Each angle is checked against its neighbour towards upright (the anchor
+    angle against ``h_anchor``, ``tau_anchor``): one Newton step from the neighbour's
+    solution must land near it.  From the first angle that fails, the angles are
+    solved one at a time, each from its neighbour's solution, until they rejoin the
+    solutions already found.  Where even that does not converge (the branch ends: the
+    boat would dive or roll over), the solution found at once is kept.
+
+    ``neighbours`` replaces :func:`heel_neighbours` (-1: follow from the anchor values
+    of that angle itself).  Returns the repaired solutions and whether any angle had to
+    be re-solved.
+    """
+    nb = heel_neighbours(frame.phi) if neighbours is None else neighbours
+    has_nb = nb >= 0
+    j = np.where(has_nb, nb, 0)
+    h_nb = np.where(has_nb, eq.h[j], h_anchor)
+    tau_nb = np.where(has_nb, eq.tau[j], tau_anchor)
+    ok_nb = np.where(has_nb, eq.converged[j], True)
+    h1, tau1 = _newton_from(table, frame, volume, x_g, eta_g, h_nb, tau_nb)
+    length = float(table.x[-1] - table.x[0])
+    span = float(np.max(frame.eta_high - frame.eta_low))
+    with np.errstate(invalid="ignore"):
+        miss = np.abs(h1 - eq.h) + length * np.abs(tau1 - eq.tau)
+        step = np.abs(h1 - h_nb) + length * np.abs(tau1 - tau_nb)
+        reached = eq.converged & (miss <= CONTINUITY * step + 1e-9 * span)
+    suspect = ok_nb & ~reached
+    if not suspect.any():
+        return eq, False
+    order = np.argsort(frame.phi, kind="stable")
+    a = int(np.argmin(np.abs(frame.phi[order])))
+    for sweep in (order[a:], order[a::-1]):
+        moved = False
+        for i in sweep.tolist():
+            if not (suspect[i] or (moved and neighbours is None)):
+                continue
+            k = int(nb[i])
+            if k >= 0 and not eq.converged[k]:
+                moved = False
+                continue
+            h0 = np.array([eq.h[k] if k >= 0 else h_anchor[i]])
+            t0 = np.array([eq.tau[k] if k >= 0 else tau_anchor[i]])
+            one = solve_equilibrium(
+                table, frame.take(np.array([i])), volume, x_g, eta_g[i : i + 1], h0, t0,
+                safeguard=False,
+            )
+            if not one.converged[0]:
+                moved = False  # the branch ends here: keep what was found at once
+                continue
+            same = eq.converged[i] and (
+                abs(one.h[0] - eq.h[i]) + length * abs(one.tau[0] - eq.tau[i]) <= 1e-7 * span
+            )
+            moved = not same
+            if moved:
+                eq = _with(eq, i, one)
+    return eq, True

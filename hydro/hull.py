@@ -13,6 +13,7 @@ imported offsets table and an analytic test hull are all the same to it.
 from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
+from functools import lru_cache
 
 import numpy as np
 import shapely
@@ -140,40 +141,57 @@ class Stations:
         gunwale, the last point being the gunwale.
     check_sections : check every outline for self-crossing (shapely); the generator
         turns it off after checking the shapes it scales
+    stack : (S, n, 2) the half sections as one array when they all have n points
+        (generated stations do), else None; lets the engine work on all at once
     """
 
     x: FloatArray
     half_sections: tuple[FloatArray, ...]
     check_sections: bool = field(default=True, repr=False)
+    stack: FloatArray | None = field(init=False, repr=False)
 
     def __post_init__(self) -> None:
         x = np.asarray(self.x, dtype=float)
         object.__setattr__(self, "x", x)
-        object.__setattr__(
-            self, "half_sections", tuple(np.asarray(h, dtype=float) for h in self.half_sections)
-        )
+        halves = tuple(np.asarray(h, dtype=float) for h in self.half_sections)
+        object.__setattr__(self, "half_sections", halves)
         if x.ndim != 1 or x.size < 2:
             raise ShapeError("a hull needs at least two stations")
-        if len(self.half_sections) != x.size:
+        if len(halves) != x.size:
             raise ShapeError("each station needs exactly one half section")
         if not np.all(np.isfinite(x)) or np.any(np.diff(x) <= 0):
             raise ShapeError("station positions must be finite and strictly increasing")
-        for xi, h in zip(x, self.half_sections):
-            if self.check_sections:
-                validate_half_section(h, f"station at x = {xi:.3f} m")
-            elif h.ndim != 2 or h.shape[1] != 2 or not np.all(np.isfinite(h)):
-                raise ShapeError(f"station at x = {xi:.3f} m: points are not finite (y, z) pairs")
-        if max(float(np.max(h[:, 0])) for h in self.half_sections) <= 0:
+        shapes = {h.shape for h in halves}
+        stack = None
+        if len(shapes) == 1 and len(next(iter(shapes))) == 2 and next(iter(shapes))[1] == 2:
+            stack = np.stack(halves)
+            stack.flags.writeable = False
+        object.__setattr__(self, "stack", stack)
+        if stack is not None and not self.check_sections:
+            if not np.all(np.isfinite(stack)):
+                bad = int(np.flatnonzero(~np.isfinite(stack).all(axis=(1, 2)))[0])
+                raise ShapeError(f"station at x = {x[bad]:.3f} m: points are not finite (y, z) pairs")
+        else:
+            for xi, h in zip(x, halves):
+                if self.check_sections:
+                    validate_half_section(h, f"station at x = {xi:.3f} m")
+                elif h.ndim != 2 or h.shape[1] != 2 or not np.all(np.isfinite(h)):
+                    raise ShapeError(f"station at x = {xi:.3f} m: points are not finite (y, z) pairs")
+        if self.max_half_breadth <= 0:
             raise ShapeError("the hull has no breadth at any station")
 
     @property
     def gunwale(self) -> FloatArray:
         """(S, 2) starboard gunwale points (y, z)."""
+        if self.stack is not None:
+            return self.stack[:, -1].copy()
         return np.array([h[-1] for h in self.half_sections])
 
     @property
     def keel_z(self) -> float:
         """Height of K, the lowest point of the hull (m)."""
+        if self.stack is not None:
+            return float(self.stack[:, :, 1].min())
         return float(min(np.min(h[:, 1]) for h in self.half_sections))
 
     @property
@@ -182,6 +200,8 @@ class Stations:
 
     @property
     def max_half_breadth(self) -> float:
+        if self.stack is not None:
+            return float(self.stack[:, :, 0].max())
         return float(max(np.max(h[:, 0]) for h in self.half_sections))
 
 
@@ -243,14 +263,38 @@ def validate_sketch(sketch: HullSketch) -> None:
     if np.any(depth <= 0):
         bad = xs[np.argmin(depth)]
         raise ShapeError(f"the sheer is not above the keel near x = {bad:.3f} m")
-    if not sketch.sections:
+    _cached(_checked_shapes, sketch.sections)
+
+
+def _cached(function, *key):
+    """``function(*key)`` through its cache; straight through if the key is not hashable
+    (points given as lists)."""
+    try:
+        return function(*key)
+    except TypeError:
+        return function.__wrapped__(*key)
+
+
+@lru_cache(maxsize=16)
+def _checked_shapes(sections: tuple[SectionShape, ...]) -> tuple[FloatArray, FloatArray]:
+    """Check the section shapes (raises ShapeError) and sample them for blending.
+
+    Cached on the shapes themselves: a drag of the plan, keel or sheer leaves them as
+    they were, so they are checked and sampled once, not in every frame.
+
+    Returns
+    -------
+    at : (K,) positions of the shapes along the hull
+    shapes : (K, m, 2) the shapes sampled at the same parameters (see _sampled_shapes)
+    """
+    if not sections:
         raise ShapeError("the hull needs at least one section shape")
-    counts = {len(s.points) for s in sketch.sections}
+    counts = {len(s.points) for s in sections}
     if len(counts) != 1:
         raise ShapeError("all section shapes must have the same number of points")
-    if any(np.diff([s.x for s in sketch.sections]) <= 0):
+    if any(np.diff([s.x for s in sections]) <= 0):
         raise ShapeError("section shapes must be placed at different, increasing positions")
-    for s in sketch.sections:
+    for s in sections:
         p = np.asarray(s.points, dtype=float)
         where = f"section shape at x = {s.x:.3f} m"
         if len(p) < 2:
@@ -268,6 +312,39 @@ def validate_sketch(sketch: HullSketch) -> None:
         validate_half_section(
             sample_polyline(p, s.smooth, SMOOTH_SAMPLES_PER_SPAN), where
         )
+    shapes = _shape_samples(sections)
+    at = np.array([sec.x for sec in sections])
+    for mid in 0.5 * (at[:-1] + at[1:]):
+        validate_half_section(_blend(shapes, at, np.array([mid]))[0], f"the blend at x = {mid:.3f} m")
+    at.flags.writeable = False
+    shapes.flags.writeable = False
+    return at, shapes
+
+
+@lru_cache(maxsize=16)
+def _station_shapes(
+    sections: tuple[SectionShape, ...], x0: float, x1: float, count: int
+) -> tuple[FloatArray, FloatArray]:
+    """(xs, uv): ``count`` stations from x0 to x1 and the blended shape (n, m, 2) at each,
+    every one checked exactly for crossing edges (raises ShapeError).
+
+    Cached: they depend on the shapes and the ends alone, not on the plan, keel or sheer
+    a drag moves.
+    """
+    at, shapes = _cached(_checked_shapes, sections)
+    xs = np.linspace(x0, x1, count)
+    uv = np.array(_blend(shapes, at, xs))
+    # every station's blended shape, exactly: the placing is an affine map with
+    # positive scales, which keeps a shape free of crossings
+    bad = first_crossed_outline(uv)
+    if bad is not None:
+        raise ShapeError(
+            f"station {bad} at x = {xs[bad]:.3f} m: the section outline crosses itself "
+            "(the blend of the section shapes there)"
+        )
+    xs.flags.writeable = False
+    uv.flags.writeable = False
+    return xs, uv
 
 
 def _subdivide(points: FloatArray, per_segment: int) -> FloatArray:
@@ -278,21 +355,26 @@ def _subdivide(points: FloatArray, per_segment: int) -> FloatArray:
 
 
 def _sampled_shapes(sketch: HullSketch) -> FloatArray:
+    """(K, m, 2) every section shape of the sketch sampled at the same parameters."""
+    return _shape_samples(sketch.sections)
+
+
+def _shape_samples(sections: tuple[SectionShape, ...]) -> FloatArray:
     """(K, m, 2) every section shape sampled at the same parameters.
 
     Hard-chine shapes keep their own points when no shape is smooth; otherwise every
     shape is sampled ``SMOOTH_SAMPLES_PER_SPAN`` times per span (straight spans stay
     straight), so corresponding samples can be blended.
     """
-    shapes = [np.asarray(sec.points, dtype=float) for sec in sketch.sections]
-    if not any(sec.smooth for sec in sketch.sections):
+    shapes = [np.asarray(sec.points, dtype=float) for sec in sections]
+    if not any(sec.smooth for sec in sections):
         return np.stack(shapes)
     return np.stack(
         [
             sample_polyline(p, True, SMOOTH_SAMPLES_PER_SPAN)
             if sec.smooth
             else _subdivide(p, SMOOTH_SAMPLES_PER_SPAN)
-            for sec, p in zip(sketch.sections, shapes)
+            for sec, p in zip(sections, shapes)
         ]
     )
 
@@ -321,21 +403,9 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
     n = sketch.station_count if count is None else count
     if not 2 <= n <= 1001:
         raise ShapeError("the station count must be between 2 and 1001")
-    shapes = _sampled_shapes(sketch)
-    at = np.array([sec.x for sec in sketch.sections])
-    for mid in 0.5 * (at[:-1] + at[1:]):
-        validate_half_section(_blend(shapes, at, np.array([mid]))[0], f"the blend at x = {mid:.3f} m")
     x0, x1 = sketch.x_range
-    xs = np.linspace(x0, x1, n)
-    # every station's blended shape, exactly: the placing below is an affine map with
-    # positive scales, which keeps a shape free of crossings
-    bad = first_crossed_outline(_blend(shapes, at, xs))
-    if bad is not None:
-        raise ShapeError(
-            f"station {bad} at x = {xs[bad]:.3f} m: the section outline crosses itself "
-            "(the blend of the section shapes there)"
-        )
-    return Stations(xs, tuple(_place_shapes(sketch, shapes, at, xs)), check_sections=False)
+    xs, uv = _cached(_station_shapes, sketch.sections, x0, x1, n)
+    return Stations(xs.copy(), tuple(_placed(sketch, uv, xs)), check_sections=False)
 
 
 def first_crossed_outline(halves: FloatArray) -> int | None:
@@ -374,11 +444,19 @@ def first_crossed_outline(halves: FloatArray) -> int | None:
 
 
 def _place_shapes(sketch: HullSketch, shapes: FloatArray, at: FloatArray, xs: FloatArray) -> FloatArray:
-    uv = _blend(shapes, at, xs)
+    return _placed(sketch, _blend(shapes, at, xs), xs)
+
+
+def _placed(sketch: HullSketch, uv: FloatArray, xs: FloatArray) -> FloatArray:
+    """(n, m, 2) half sections (y, z): blended shapes ``uv`` scaled to the sketch at xs."""
     b = np.maximum(sketch.plan(xs), 0.0)[:, None]
-    k = sketch.keel(xs)[:, None]
-    d = (sketch.sheer(xs) - sketch.keel(xs))[:, None]
-    return np.stack([uv[:, :, 0] * b, k + uv[:, :, 1] * d], axis=2)
+    k = sketch.keel(xs)
+    d = sketch.sheer(xs) - k
+    halves = np.empty(uv.shape)
+    np.multiply(uv[:, :, 0], b, out=halves[:, :, 0])
+    np.multiply(uv[:, :, 1], d[:, None], out=halves[:, :, 1])
+    halves[:, :, 1] += k[:, None]
+    return halves
 
 
 def half_sections_at(sketch: HullSketch, xs: FloatArray) -> FloatArray:

@@ -269,7 +269,8 @@ def shell_panels(stations: Stations) -> ShellPanels:
         n = 48
         halves = tuple(_resample_girth(h, n) for h in halves)
     x = stations.x
-    pts = np.concatenate([np.broadcast_to(x[:, None, None], (x.size, n, 1)), np.stack(halves)], axis=2)
+    stack = stations.stack if stations.stack is not None else np.stack(halves)
+    pts = np.concatenate([np.broadcast_to(x[:, None, None], (x.size, n, 1)), stack], axis=2)
     a, b = pts[:-1], pts[1:]
     tris = ((a[:, :-1], b[:, :-1], b[:, 1:]), (a[:, :-1], b[:, 1:], a[:, 1:]))
     areas, cents, kinds = [], [], []
@@ -311,7 +312,10 @@ def _free_surface(stations: Stations, level: float) -> tuple[FloatArray, int]:
 
 
 def _keel_height_at(stations: Stations, x: float) -> float:
-    low = np.array([np.min(h[:, 1]) for h in stations.half_sections])
+    if stations.stack is not None:
+        low = stations.stack[:, :, 1].min(axis=1)
+    else:
+        low = np.array([np.min(h[:, 1]) for h in stations.half_sections])
     return float(np.interp(x, stations.x, low))
 
 

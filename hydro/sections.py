@@ -142,6 +142,40 @@ def linear_weights(x: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray]:
     return w[0], w[1], w[2]
 
 
+def _closed_rings(stack: FloatArray) -> tuple[FloatArray, FloatArray]:
+    """(S, 2n) y and z of the closed polygons of S half sections of n points each.
+
+    Starboard half, then port mirrored (the keel point once), then the first vertex again.
+    """
+    s_count, n, _ = stack.shape
+    y = np.empty((s_count, 2 * n))
+    z = np.empty((s_count, 2 * n))
+    y[:, :n] = stack[:, :, 0]
+    z[:, :n] = stack[:, :, 1]
+    y[:, n : 2 * n - 1] = -stack[:, -1::-1, 0][:, : n - 1]
+    z[:, n : 2 * n - 1] = stack[:, -1::-1, 1][:, : n - 1]
+    y[:, -1] = y[:, 0]
+    z[:, -1] = z[:, 0]
+    return y, z
+
+
+def _padded_rings(halves: tuple[FloatArray, ...]) -> tuple[FloatArray, FloatArray]:
+    """Closed polygons of half sections with different point counts, padded to one."""
+    rings = []
+    for h in halves:
+        mirrored = h[::-1] * [-1.0, 1.0]
+        rings.append(np.vstack([h, mirrored[:-1]]))  # keel point appears once
+    n_vertices = max(len(r) for r in rings) + 1
+    y = np.empty((len(rings), n_vertices))
+    z = np.empty((len(rings), n_vertices))
+    for i, ring in enumerate(rings):
+        y[i, : len(ring)] = ring[:, 0]
+        z[i, : len(ring)] = ring[:, 1]
+        y[i, len(ring) :] = ring[0, 0]
+        z[i, len(ring) :] = ring[0, 1]
+    return y, z
+
+
 def build_section_table(stations: Stations) -> SectionTable:
     """Close, mirror and pad the half sections; precompute the edge prefix sums.
 
@@ -156,20 +190,11 @@ def build_section_table(stations: Stations) -> SectionTable:
     >>> t.totals[:, 0].round(6).tolist()
     [2.0, 0.0, 1.0]
     """
-    rings = []
-    for h in stations.half_sections:
-        mirrored = h[::-1] * [-1.0, 1.0]
-        ring = np.vstack([h, mirrored[:-1]])  # keel point appears once
-        rings.append(ring)
-    n_vertices = max(len(r) for r in rings) + 1
-    s_count = len(rings)
-    y = np.empty((s_count, n_vertices))
-    z = np.empty((s_count, n_vertices))
-    for i, ring in enumerate(rings):
-        y[i, : len(ring)] = ring[:, 0]
-        z[i, : len(ring)] = ring[:, 1]
-        y[i, len(ring) :] = ring[0, 0]
-        z[i, len(ring) :] = ring[0, 1]
+    if stations.stack is not None:
+        y, z = _closed_rings(stations.stack)
+    else:
+        y, z = _padded_rings(stations.half_sections)
+    s_count, n_vertices = y.shape
     y0, y1, z0, z1 = y[:, :-1], y[:, 1:], z[:, :-1], z[:, 1:]
     crossp = y0 * z1 - y1 * z0
     edge = np.stack([crossp / 2, (y0 + y1) * crossp / 6, (z0 + z1) * crossp / 6])

@@ -18,7 +18,7 @@ from typing import Callable
 import numpy as np
 from numpy.typing import NDArray
 
-from hydro.equilibrium import Equilibrium, level_waterline, solve_equilibrium
+from hydro.equilibrium import Equilibrium, follow_branch, level_waterline, solve_equilibrium
 from hydro.loads import WeightSummary
 from hydro.sections import HeelFrame, SectionTable, heel_frame
 from hydro.wording import status_sentence
@@ -129,6 +129,9 @@ class StabilityCurve:
     list_deg : static heel of the boat as loaded (GZ = 0, stable), + starboard; None
         when there is none on the listing side: the boat capsizes (refined)
     side : +1 starboard, -1 port: the side G pulls the boat towards
+    waterlines : (h, tau), each (A,): the water plane eta - tau x = h found at each heel
+        (body frame, port heels as their mirror image), to start the solver of a later
+        analysis of a nearby design
     """
 
     heel_deg: FloatArray
@@ -148,6 +151,7 @@ class StabilityCurve:
     area_to_gunwale: float | None
     list_deg: float | None = 0.0
     side: int = 1
+    waterlines: tuple[FloatArray, FloatArray] | None = None
 
     @property
     def capsizes(self) -> bool:
@@ -232,21 +236,33 @@ def _drafts(table: SectionTable, h: float, tau: float) -> tuple[float, float, fl
 
 
 def upright(
-    table: SectionTable, weights: WeightSummary, rho: float, free_trim: bool = True
+    table: SectionTable,
+    weights: WeightSummary,
+    rho: float,
+    free_trim: bool = True,
+    start: tuple[float, float] | None = None,
 ) -> Hydrostatics | None:
     """Upright (zero heel) equilibrium at free trim and its hydrostatics.
 
-    Returns None when the whole closed hull displaces less than the load (or just as
-    much: then it hangs wholly under water with no waterplane).
+    ``start`` (h, tau) is where a nearby design floated: the solver starts there and
+    falls back to a level waterline if it does not settle.  Returns None when the whole
+    closed hull displaces less than the load (or just as much: then it hangs wholly
+    under water with no waterplane).
     """
     volume = weights.mass / rho
     frame = heel_frame(table, np.zeros(1))
+    vcg = np.array([weights.vcg])
+    if start is not None:
+        h_start, tau_start = np.array([start[0]]), np.array([start[1] if free_trim else 0.0])
+        eq = solve_equilibrium(
+            table, frame, volume, weights.lcg, vcg, h_start, tau_start, free_trim
+        )
+        if eq.waterplane[0] > 0 and eq.converged[0]:
+            return hydrostatics_at(table, weights, rho, eq)
     h0 = level_waterline(table, frame, volume)
     if not np.isfinite(h0[0]):
         return None
-    eq = solve_equilibrium(
-        table, frame, volume, weights.lcg, np.array([weights.vcg]), h0, np.zeros(1), free_trim
-    )
+    eq = solve_equilibrium(table, frame, volume, weights.lcg, vcg, h0, np.zeros(1), free_trim)
     if not (eq.waterplane[0] > 0 and eq.converged[0]):  # no floating position
         return None
     return hydrostatics_at(table, weights, rho, eq)
@@ -412,6 +428,12 @@ class _Points:
     trim_deg: FloatArray
     low_freeboard: FloatArray
     converged: NDArray[np.bool_]
+    h: FloatArray
+    tau: FloatArray
+
+
+#: (h, tau) at each heel: where to start the solver, or where it found the boat.
+Waterlines = tuple[FloatArray, FloatArray]
 
 
 def _starboard_points(
@@ -421,39 +443,84 @@ def _starboard_points(
     base: Hydrostatics,
     heel_deg: FloatArray,
     free_trim: bool,
+    start: Waterlines | None = None,
+    chain: bool = True,
 ) -> _Points:
-    """GZ, trim and low-side freeboard at heels >= 0 (starboard down)."""
+    """GZ, trim and low-side freeboard at heels >= 0 (starboard down).
+
+    Newton's method starts from the upright waterline turned with the boat, or from
+    ``start``.  With free trim the solutions are then followed heel by heel from
+    upright (``chain``), so every heel stays on the boat's own branch; without
+    ``chain`` (points between angles already solved, ``start`` interpolated from them)
+    each one is followed from its own start.
+    """
     phi = np.radians(heel_deg)
     frame = heel_frame(table, phi)
     c, s = frame.cos, frame.sin
     xi_g = c * weights.tcg + s * weights.vcg
     eta_g = c * weights.vcg - s * weights.tcg
     volume = weights.mass / rho
-    eq = solve_equilibrium(
-        table, frame, volume, weights.lcg, eta_g, base.h * c, base.tau * c, free_trim
-    )
-    bad = ~eq.converged
-    if bad.any():  # restart the stragglers from a level waterline
-        idx = np.flatnonzero(bad)
-        sub = heel_frame(table, phi[idx])
-        h_level = level_waterline(table, sub, volume)
-        retry = solve_equilibrium(
-            table, sub, volume, weights.lcg, eta_g[idx], np.nan_to_num(h_level), np.zeros(idx.size), free_trim
-        )
-        xi_b = eq.xi_b.copy()
-        tau = eq.tau.copy()
-        h = eq.h.copy()
-        conv = eq.converged.copy()
-        xi_b[idx], tau[idx], h[idx], conv[idx] = retry.xi_b, retry.tau, retry.h, retry.converged
-    else:
-        xi_b, tau, h, conv = eq.xi_b, eq.tau, eq.h, eq.converged
+    turned = (base.h * c, base.tau * c)  # the upright waterline turned with the boat
+    anchor = turned if chain or start is None else start
+    solved = None
+    if start is not None:
+        solved = _solve_heels(table, frame, weights, volume, eta_g, start, anchor, free_trim, chain)
+        if solved[4] and chain:  # the previous solutions branched off somewhere: afresh
+            solved = None
+    if solved is None:
+        solved = _solve_heels(table, frame, weights, volume, eta_g, turned, turned, free_trim, True)
+    h, tau, xi_b, conv, _ = solved
     gz = xi_b - xi_g - _loose_water_shift(table, frame, weights, rho, tau)
     gz = np.where(conv, gz, np.nan)
     # low (starboard) gunwale height above the heeled waterline at every station
     eta_gw = c[:, None] * table.gunwale_z[None] - s[:, None] * table.gunwale_y[None]
     low_fb = (eta_gw - (h[:, None] + tau[:, None] * table.x[None])).min(axis=1)
     low_fb = np.where(conv, low_fb, np.nan)
-    return _Points(gz, np.degrees(np.arctan(tau)), low_fb, conv)
+    return _Points(gz, np.degrees(np.arctan(tau)), low_fb, conv, h, tau)
+
+
+def _solve_heels(
+    table: SectionTable,
+    frame: HeelFrame,
+    weights: WeightSummary,
+    volume: float,
+    eta_g: FloatArray,
+    start: Waterlines,
+    anchor: Waterlines,
+    free_trim: bool,
+    chain: bool,
+) -> tuple[FloatArray, FloatArray, FloatArray, NDArray[np.bool_], bool]:
+    """(h, tau, xi_b, converged, repaired) at every heel, from ``start``.
+
+    With free trim, Newton's method from ``start`` first; then the solutions are followed
+    from ``anchor`` (heel by heel with ``chain``), which also settles most angles Newton
+    left.  Angles still without a floating position take the safeguarded path from the
+    anchor, and then a restart from a level waterline.
+    """
+    eq = solve_equilibrium(
+        table, frame, volume, weights.lcg, eta_g, start[0], start[1], free_trim, safeguard=False
+    )
+    repaired = False
+    if free_trim:
+        nb = None if chain else np.full(frame.phi.size, -1)
+        eq, repaired = follow_branch(
+            table, frame, volume, weights.lcg, eta_g, eq, anchor[0], anchor[1], nb
+        )
+    for retry_start in ("anchor", "level"):
+        bad = ~eq.converged
+        if not bad.any():
+            break
+        idx = np.flatnonzero(bad)
+        sub = frame.take(idx)
+        if retry_start == "anchor":
+            h0, tau0 = anchor[0][idx], anchor[1][idx]
+        else:
+            h0, tau0 = np.nan_to_num(level_waterline(table, sub, volume)), np.zeros(idx.size)
+        retry = solve_equilibrium(table, sub, volume, weights.lcg, eta_g[idx], h0, tau0, free_trim)
+        xi_b, tau, h, conv = eq.xi_b.copy(), eq.tau.copy(), eq.h.copy(), eq.converged.copy()
+        xi_b[idx], tau[idx], h[idx], conv[idx] = retry.xi_b, retry.tau, retry.h, retry.converged
+        eq = replace(eq, xi_b=xi_b, tau=tau, h=h, converged=conv)
+    return eq.h, eq.tau, eq.xi_b, eq.converged, repaired
 
 
 def curve_points(
@@ -463,25 +530,34 @@ def curve_points(
     base: Hydrostatics,
     heel_deg: FloatArray,
     free_trim: bool = True,
+    start: Waterlines | None = None,
+    chain: bool = True,
 ) -> _Points:
     """GZ, trim and low-side freeboard at signed heels (negative = port down).
 
     Port heels are solved as the mirror image: the boat with G reflected in the
-    centreline heeled to starboard, GZ changing sign.
+    centreline heeled to starboard, GZ changing sign.  ``start`` and ``chain``: see
+    :func:`_starboard_points`.
     """
     heel_deg = np.asarray(heel_deg, dtype=float)
     port = heel_deg < 0
     if not port.any():
-        return _starboard_points(table, weights, rho, base, heel_deg, free_trim)
+        return _starboard_points(table, weights, rho, base, heel_deg, free_trim, start, chain)
     gz = np.full(heel_deg.size, np.nan)
     trim = np.full(heel_deg.size, np.nan)
     low = np.full(heel_deg.size, np.nan)
     conv = np.zeros(heel_deg.size, dtype=bool)
+    h = np.full(heel_deg.size, np.nan)
+    tau = np.full(heel_deg.size, np.nan)
     for mask, w, sign in ((~port, weights, 1.0), (port, _mirrored(weights), -1.0)):
         if mask.any():
-            p = _starboard_points(table, w, rho, base, np.abs(heel_deg[mask]), free_trim)
+            part = None if start is None else (start[0][mask], start[1][mask])
+            p = _starboard_points(
+                table, w, rho, base, np.abs(heel_deg[mask]), free_trim, part, chain
+            )
             gz[mask], trim[mask], low[mask], conv[mask] = sign * p.gz, p.trim_deg, p.low_freeboard, p.converged
-    return _Points(gz, trim, low, conv)
+            h[mask], tau[mask] = p.h, p.tau
+    return _Points(gz, trim, low, conv, h, tau)
 
 
 def both_sides(heel_deg: FloatArray) -> FloatArray:
@@ -568,11 +644,16 @@ def righting_curve(
     base: Hydrostatics,
     heel_deg: FloatArray,
     free_trim: bool = True,
+    waterlines: Waterlines | None = None,
 ) -> StabilityCurve:
     """GZ at every angle in ``heel_deg`` from exact heeled equilibrium, and its features.
 
     All angles are solved together by Newton's method, starting from the upright
-    waterline turned with the boat.  Loose (bilge) water is a weight that moves: at each
+    waterline turned with the boat, or from ``waterlines`` ((h, tau) at the same angles,
+    from a nearby design's curve: the same solution in fewer steps).
+    With free trim the solutions are then followed heel by heel from upright, so the
+    curve stays on the boat's own branch (:func:`hydro.equilibrium.follow_branch`).
+    Loose (bilge) water is a weight that moves: at each
     heel its surface is found inside the hull, parallel to the sea's, and the shift of its
     centre reduces GZ (thin-shell approximation; its fore-and-aft shift is ignored).  At
     small angles this is the free-surface correction FSC sin(phi); it also holds when the
@@ -586,7 +667,9 @@ def righting_curve(
     the grid) when the curve has three or more angles.
     """
     heel_deg = np.asarray(heel_deg, dtype=float)
-    pts = curve_points(table, weights, rho, base, heel_deg, free_trim)
+    if waterlines is not None and waterlines[0].shape != heel_deg.shape:
+        waterlines = None
+    pts = curve_points(table, weights, rho, base, heel_deg, free_trim, waterlines)
     gz, conv = pts.gz, pts.converged
     phi = np.radians(heel_deg)
     c, s = np.cos(phi), np.sin(phi)
@@ -606,8 +689,18 @@ def righting_curve(
     fb = pts.low_freeboard[keep][order]
     refine = a.size >= 3
 
+    h_side, tau_side = pts.h[keep][order], pts.tau[keep][order]
+    solved = np.isfinite(h_side)
+
     def evaluate(angles: FloatArray) -> FloatArray:
-        return side * curve_points(table, weights, rho, base, side * angles, free_trim).gz
+        """GZ between solved angles, each started from its neighbours' solutions."""
+        guess = None
+        if solved.sum() >= 2:
+            at = a[solved]
+            guess = (np.interp(angles, at, h_side[solved]), np.interp(angles, at, tau_side[solved]))
+        return side * curve_points(
+            table, weights, rho, base, side * angles, free_trim, guess, chain=False
+        ).gz
 
     if not is_asymmetric(weights) and base.gm > 0:
         list_i: int | None = -1  # upright
@@ -670,6 +763,7 @@ def righting_curve(
         area_to_gunwale=curve_area(a, g, gunwale) if gunwale is not None else None,
         list_deg=list_deg,
         side=side,
+        waterlines=(pts.h, pts.tau),
     )
 
 
@@ -704,15 +798,25 @@ def analyse_table(
     heel_deg: FloatArray,
     free_trim: bool = True,
     open_boat: bool = True,
+    start: Analysis | None = None,
 ) -> Analysis:
     """Upright hydrostatics, the GZ curve (both sides when G is off the centreline) and
-    the one status of the loaded boat (see :class:`Status`)."""
+    the one status of the loaded boat (see :class:`Status`).
+
+    ``start``: an analysis of a nearby design (the previous frame of a drag); the solver
+    starts from its floating positions and reaches the same figures in fewer steps.
+    """
     capacity = float(table.totals[0] @ table.weights) * rho
-    base = upright(table, weights, rho, free_trim)
+    near = start.hydrostatics if start is not None else None
+    base = upright(table, weights, rho, free_trim, None if near is None else (near.h, near.tau))
     if base is None:
         return Analysis(Status.SINKS, weights, None, None, capacity_kg=capacity)
     angles = both_sides(heel_deg) if is_asymmetric(weights) else np.asarray(heel_deg, float)
-    curve = righting_curve(table, weights, rho, base, angles, free_trim)
+    previous = start.curve if start is not None else None
+    warm = None
+    if previous is not None and np.array_equal(previous.heel_deg, angles):
+        warm = previous.waterlines
+    curve = righting_curve(table, weights, rho, base, angles, free_trim, warm)
     if curve.list_deg is None:
         status = Status.CAPSIZES
     elif base.min_freeboard <= 0:

@@ -3,12 +3,13 @@
 import json
 from dataclasses import replace
 
+import numpy as np
 import pytest
 
 from hydro import DesignFileError, analyse, load_design
 
 from app import editing
-from app.document import HullDocument, rough_analysis
+from app.document import HullDocument
 from app.editing import PointRef
 from tests.app.helpers import sample
 
@@ -25,20 +26,25 @@ def _with_plan_point(design, index, point):
     return replace(design, hull=replace(hull, plan=hull.plan.with_point(index, point)))
 
 
-def test_a_drag_is_one_undo_step_with_a_rough_preview(doc, qtbot):
+def test_a_drag_is_one_undo_step_with_exact_figures_in_every_frame(doc, qtbot):
     start = doc.committed
     x, b = start.hull.plan.points[2]
     for db in (0.02, 0.04, 0.06):
-        doc.preview(_with_plan_point(start, 2, (x, b + db)))
+        moved = _with_plan_point(start, 2, (x, b + db))
+        doc.preview(moved)
         doc.recompute_now()
-        assert doc.analysis_is_rough
+        assert doc.analysis_is_live
+        exact = analyse(moved)  # from scratch: same stations, same heel angles
+        np.testing.assert_allclose(doc.analysis.curve.gz, exact.curve.gz, rtol=0, atol=1e-9)
+        assert doc.analysis.hydrostatics.gm == pytest.approx(exact.hydrostatics.gm, abs=1e-9)
+        assert doc.analysis.curve.max_gz_deg == exact.curve.max_gz_deg
     assert doc.undo_stack.count() == 0
     assert doc.committed is start
     doc.finish_preview("Drag plan point 3")
     assert doc.undo_stack.count() == 1
     assert doc.committed.hull.plan.points[2] == (x, b + 0.06)
     doc.recompute_now()
-    assert not doc.analysis_is_rough
+    assert not doc.analysis_is_live
     doc.undo_stack.undo()
     assert doc.committed == start
 
@@ -100,8 +106,8 @@ def test_the_newest_edit_wins(doc, qtbot):
         doc.preview(_with_plan_point(start, 2, (x, b + db)))
     qtbot.waitUntil(lambda: len(results) == 1)
     assert len(shown) == 1 and shown[0].hull.plan.points[2] == (x, b + 0.03)
-    expected = rough_analysis(_with_plan_point(start, 2, (x, b + 0.03)))
-    assert results[0].hydrostatics.gm == pytest.approx(expected.hydrostatics.gm, abs=1e-12)
+    expected = analyse(_with_plan_point(start, 2, (x, b + 0.03)))
+    assert results[0].hydrostatics.gm == pytest.approx(expected.hydrostatics.gm, abs=1e-9)
 
 
 def test_full_analysis_equals_the_engine(doc):

@@ -49,11 +49,11 @@ def test_drag_outward_raises_beam_and_gm_and_undo_redo_are_exact(setup, qtbot):
     bwl0, gm0, gm_text0, bm_text0, gz0 = _figures(doc, panel)
     x, b = doc.committed.hull.plan.points[2]
     seen = []
-    doc.analysisReady.connect(lambda a: seen.append(doc.analysis_is_rough))
+    doc.analysisReady.connect(lambda a: seen.append(doc.analysis_is_live))
     with qtbot.waitSignal(plan.handles.dragFinished, timeout=3000) as finished:
         drag(qtbot, plan.plot, (x, b), (x, b + 0.12))
     assert finished.args == [2]
-    qtbot.waitUntil(lambda: not doc.analysis_pending and not doc.analysis_is_rough)
+    qtbot.waitUntil(lambda: not doc.analysis_pending and not doc.analysis_is_live)
     assert True in seen, "the readout did not update during the drag"
     assert doc.undo_stack.count() == 1
     new_b = doc.committed.hull.plan.points[2][1]
