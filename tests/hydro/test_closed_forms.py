@@ -453,3 +453,33 @@ def test_trim_from_a_weight_moved_forward():
     assert h.min_freeboard_x == L
     mct = delta * gm_l / (100 * L)
     assert h.trim * 100 == pytest.approx(delta * shift / mct, rel=1e-3)  # small-angle form
+
+
+@pytest.mark.source(f"{BARRASS}, 'Trim'; {TUPPER}, wall-sided formula p. 49 (applied fore and aft)")
+def test_flooding_mass_of_a_box_loaded_aft():
+    """A box loaded 0.2 m aft of midships floods when its stern draft reaches the depth.
+    For a box the longitudinal wall-sided relation gives the trim at any mass exactly,
+    tan(t) (GM_L + BM_L tan^2(t)/2) = offset, so brentq on the stern draft
+    T + (L/2) tan(t) = D gives the mass at which the transom goes under."""
+    from scipy.optimize import brentq
+
+    from hydro.sections import build_section_table
+    from hydro.stability import flooding_mass
+    from tests.hydro.helpers import lumped
+
+    L, B, D, kg, offset = 3.0, 1.0, 0.5, 0.2, 0.2
+
+    def stern_draft(mass: float) -> float:
+        T = mass / (RHO * L * B)
+        bm_l = L**2 / (12 * T)
+        roots = np.roots([0.5 * bm_l, 0.0, T / 2 + bm_l - kg, -offset])
+        tan = min(r.real for r in roots if abs(r.imag) < 1e-12 and r.real > 0)
+        assert tan < 2 * T / L  # the bow's bottom edge stays wet: still wall-sided
+        return T + L / 2 * tan
+
+    expected = brentq(lambda m: stern_draft(m) - D, 600.0, 1500.0, xtol=1e-9)
+    table = build_section_table(box(L, B, D, stations=61))
+    found = flooding_mass(table, lumped(1000.0, L / 2 - offset, kg), RHO)
+    # bisection to 0.1 kg; the trimmed waterline's O(h^2) error over 61 stations adds
+    # about 0.01 kg
+    assert found == pytest.approx(expected, abs=0.15)
