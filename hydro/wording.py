@@ -256,14 +256,15 @@ def trim_words(trim_deg: float) -> str:
 
 def trim_text(t: TrimResult, u: UnitSystem = METRIC) -> str:
     """Where to seat someone (or put an item) so the boat floats level."""
-    if t.x_after is None:
+    after = t.trim_after_deg
+    if t.x_after is None or after is None:
         return (
             f"Moving {t.what} alone cannot float the boat level "
             f"(trim now {trim_words(t.trim_before_deg)})."
         )
     return (
         f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
-        f"trim {trim_words(t.trim_after_deg)} (now {trim_words(t.trim_before_deg)}), freeboard aft "
+        f"trim {trim_words(after)} (now {trim_words(t.trim_before_deg)}), freeboard aft "
         f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
     )
 
