@@ -581,7 +581,7 @@ def _refine(
     evaluate: Callable[[FloatArray], FloatArray],
     roots: dict[str, tuple[float, float, bool]],
     peak: tuple[float, float] | None,
-    rounds: int = 3,
+    rounds: int = 2,
     points: int = 6,
 ) -> tuple[dict[str, float], tuple[float, float] | None]:
     """Refine zero crossings and one local maximum of a function on the exact solver.
@@ -589,8 +589,9 @@ def _refine(
     ``roots`` maps a name to a bracket (lo, hi, rising); ``peak`` is a bracket around a
     local maximum.  Every round evaluates ``points`` interior angles of each bracket in
     one call (so the solver runs vectorised) and keeps the sub-bracket that holds the
-    crossing or the best value: after 3 rounds a 1-degree crossing bracket is 0.003
-    degrees wide, a maximum is known to 0.05 degrees (GZ to second order).  Returns the crossings (interpolated in the last bracket) and (angle, value)
+    crossing or the best value: after 2 rounds a 1-degree crossing bracket is 0.02
+    degrees wide (the crossing is then interpolated in it), a maximum is known to 0.2
+    degrees (its GZ to second order).  Returns the crossings (interpolated in the last bracket) and (angle, value)
     of the maximum.
     """
     brackets = {k: [lo, hi, rising] for k, (lo, hi, rising) in roots.items()}
