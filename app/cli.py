@@ -48,9 +48,9 @@ from hydro.outputs import check_output, write_via_temp
 from hydro.loads import water_density
 from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
-from hydro.units import LengthError, parse_length, system
+from hydro.units import METRIC, LengthError, parse_length, system
 from hydro.stability import Analysis
-from hydro.wording import list_text
+from hydro.wording import list_text, status_sentence
 
 if TYPE_CHECKING:
     from hydro.build_pack import PackSettings
@@ -259,7 +259,7 @@ def format_report(a: Analysis, name: str, units: str = "si") -> str:
             return "-"
         return f"{v:.1f} kg" if u is None else u.mass_text(v)
 
-    lines = [f"Hullwright report: {name}", f"Status: {a.message}"]
+    lines = [f"Hullwright report: {name}", f"Status: {status_sentence(a, u or METRIC)}"]
     if a.curve is not None:
         lines.append(f"{'Floating position':<28}{list_text(a.list_deg)}")
     lines.append("")

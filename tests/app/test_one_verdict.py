@@ -169,3 +169,13 @@ def test_an_unexpected_failure_reads_no_result(qtbot, monkeypatch):
     assert panel.status.text().startswith("No result")
     assert "geometry library failed" in panel.status.text()
     assert all(v.text() == "—" for v in panel.values.values())
+
+
+@pytest.mark.parametrize("open_boat", [True, False])
+def test_plate_honours_the_open_or_closed_hull(open_boat, monkeypatch):
+    design = sample("tern-pram")
+    design = replace(design, settings=replace(design.settings, open_boat=open_boat))
+    assert assess(design, checks=False).analysis.curve.gunwale_immersion_deg < 90
+    texts = _plate_texts(design, monkeypatch)
+    assert any("open boat floods beyond" in t for t in texts) == open_boat
+    assert any(t.startswith("deck edge under") for t in texts) == (not open_boat)
