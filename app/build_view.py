@@ -46,7 +46,8 @@ class _Relay(QObject):
 class _PackJob(QRunnable):
     def __init__(self, generation: int, design: Design, settings: PackSettings, relay: _Relay):
         super().__init__()
-        self.generation, self.design, self.settings, self.relay = generation, design, settings, relay
+        self.generation, self.design = generation, design
+        self.settings, self.relay = settings, relay
 
     def run(self) -> None:
         try:
@@ -71,7 +72,9 @@ class BuildView(QWidget):
     packReady = Signal(object)
     exportRequested = Signal()
 
-    def __init__(self, document: HullDocument, options: ViewOptions, settings: QSettings | None = None):
+    def __init__(
+        self, document: HullDocument, options: ViewOptions, settings: QSettings | None = None
+    ):
         super().__init__()
         self.document, self.options = document, options
         self.settings = settings if settings is not None else QSettings()

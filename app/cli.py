@@ -184,12 +184,16 @@ def _parser() -> argparse.ArgumentParser:
     pk.add_argument("--strain-limit", type=float, default=0.05,
                     help="flag panels whose twist strain is above this, percent (default 0.05)")
     pk.add_argument("--frames", help="frame positions in metres from the aft end, e.g. 0.6,1.3,2.0")
-    pk.add_argument("--offset-spacing", type=float,
-                    help="also tabulate panel offsets every this many mm (e.g. 100)")
+    pk.add_argument("--offset-spacing", metavar="LENGTH",
+                    help="also tabulate panel offsets this far apart (mm unless a unit is "
+                    "given: 100, 4in)")
     pk.add_argument("--tape-roll", type=float, default=55.0, help="tape roll length, m (default 55)")
     pk.add_argument("--paint-coverage", type=float, default=10.0,
                     help="paint coverage per coat, m2 per litre (default 10)")
     pk.add_argument("--coats", type=float, default=2.0, help="coats of paint (default 2)")
+    pk.add_argument("--sheet-price", type=float, help="price of one sheet (for the cost)")
+    pk.add_argument("--tape-price", type=float, help="price of one roll of tape")
+    pk.add_argument("--paint-price", type=float, help="price of one litre of paint")
     pk.add_argument("--json", action="store_true", help="print panels, sheets and materials as JSON")
     op = sub.add_parser("open", help="open the desktop app")
     op.add_argument("design", nargs="?")
@@ -541,7 +545,12 @@ def _pack_settings(args: argparse.Namespace) -> "PackSettings":
             raise BadInput("--frames must be positions in metres, e.g. 0.6,1.3,2.0") from None
         if not all(math.isfinite(v) for v in frames):
             raise BadInput("--frames must be finite numbers")
-    spacing = None if args.offset_spacing is None else args.offset_spacing / 1000.0
+    spacing = None
+    if args.offset_spacing is not None:
+        try:
+            spacing = parse_length(args.offset_spacing, "mm", 0.001, 10.0, "--offset-spacing")
+        except LengthError as e:
+            raise BadInput(str(e)) from None
     return PackSettings(
         sheet_m=parse_sheet(args.sheet),
         margin_m=args.margin / 1000.0,
@@ -556,6 +565,9 @@ def _pack_settings(args: argparse.Namespace) -> "PackSettings":
             tape_roll_m=args.tape_roll,
             paint_coverage_m2_per_l=args.paint_coverage,
             paint_coats=args.coats,
+            sheet_price=args.sheet_price,
+            tape_roll_price=args.tape_price,
+            paint_price_per_l=args.paint_price,
         ),
     )
 

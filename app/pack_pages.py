@@ -446,6 +446,8 @@ def _offset_table_rows(
         rows = []
         twist = {t.label: t.twist_deg for t in p.ticks}
         for label, vals in offset_rows(p, spacing):
+            if label not in twist and vals[0] is not None:
+                label = o(vals[0])  # a row every so far along the baseline
             cells = [label] + ["-" if v is None else o(v) for v in vals]
             cells.append(f"{twist[label]:.2f}" if label in twist else "")
             rows.append(cells)
@@ -494,7 +496,7 @@ def _paint_piece(page: _Page, pack: BuildPack, job: PieceJob) -> None:
                 color=WARN if p.strain > pack.settings.strain_limit else MUTED)
     _scale_bar(page, MARGIN_MM + 2, h - MARGIN_MM - FOOTER_MM - 5, den)
     x = w - MARGIN_MM - table_total
-    what = "Offsets from the baseline" if p.ticks else "Outline points, starboard half"
+    what = "Offsets from the baseline" if p.ticks else "Starboard half outline"
     page.c.text(x, y0, table_total, 5, f"{what} ({u.offset_unit})", BODY_PT, LEFT, bold=True)
     if p.ticks:
         page.c.text(x, y0 + 4.5, table_total, 4,

@@ -83,3 +83,11 @@ def test_round_bilge_pack_says_frames_only(tmp_path, capsys, qapp):
     out = capsys.readouterr().out
     assert "note: Round-bilge (smooth) sections have no chines" in out
     assert "pages on A4" in out
+
+
+def test_pack_cost_from_unit_prices(capsys):
+    args = ["--sheet-price", "80", "--tape-price", "9.5", "--paint-price", "20"]
+    assert main(["pack", PUNT, "--json", "--offset-spacing", "4in", *args]) == 0
+    m = json.loads(capsys.readouterr().out)["materials"]
+    sheets = sum(m["sheets_by_material"].values())
+    assert m["cost"] == pytest.approx(80 * sheets + 9.5 * m["tape_rolls"] + 20 * m["paint_l"])
