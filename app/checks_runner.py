@@ -89,10 +89,11 @@ class Relay(QObject):
 
 
 class ChecksJob(QRunnable):
-    def __init__(self, generation: int, design: Design, trim_subject: tuple[str, int], relay: Relay,
-                 stop: threading.Event):
+    def __init__(self, generation: int, design: Design, trim_subject: tuple[str, int],
+                 relay: Relay, stop: threading.Event):
         super().__init__()
-        self.generation, self.design, self.trim_subject, self.relay = generation, design, trim_subject, relay
+        self.generation, self.design, self.relay = generation, design, relay
+        self.trim_subject = trim_subject
         self.stop = stop
 
     def run(self) -> None:

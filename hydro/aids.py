@@ -22,7 +22,14 @@ from hydro.wording import beam_text, trim_text
 BEAM_FACTORS_LOW = 0.3
 BEAM_FACTORS = (BEAM_FACTORS_LOW, 3.0)
 
-__all__ = ["TARGET_GM_M", "BeamResult", "TrimResult", "apply_level_trim", "beam_for_gm", "level_trim"]
+__all__ = [
+    "TARGET_GM_M",
+    "BeamResult",
+    "TrimResult",
+    "apply_level_trim",
+    "beam_for_gm",
+    "level_trim",
+]
 
 
 @dataclass(frozen=True)

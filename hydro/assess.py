@@ -179,12 +179,10 @@ def assess(
         shift = attempt("Crew shift", lambda: crew_shift(
             design, movers, cs.shift_distance_m, cs.shift_to_gunwale, a))
     board = attempt("Boarding", lambda: boarding(design, cs.boarding_mass_kg))
-    trims = tuple(
-        t for t in (
-            attempt("Level trim", lambda i=i: level_trim(design, crew_index=i))  # type: ignore[misc]
-            for i in range(len(crew))
-        ) if t is not None
-    )
+    def trim_of(i: int) -> object | None:
+        return attempt("Level trim", lambda: level_trim(design, crew_index=i))
+
+    trims = tuple(t for t in (trim_of(i) for i in range(len(crew))) if t is not None)
     beam = None
     if isinstance(design.hull, HullSketch):
         beam = attempt("Beam", lambda: beam_for_gm(design, cs.target_gm_m))

@@ -555,7 +555,8 @@ def curve_points(
             p = _starboard_points(
                 table, w, rho, base, np.abs(heel_deg[mask]), free_trim, part, chain
             )
-            gz[mask], trim[mask], low[mask], conv[mask] = sign * p.gz, p.trim_deg, p.low_freeboard, p.converged
+            gz[mask], trim[mask] = sign * p.gz, p.trim_deg
+            low[mask], conv[mask] = p.low_freeboard, p.converged
             h[mask], tau[mask] = p.h, p.tau
     return _Points(gz, trim, low, conv, h, tau)
 
@@ -591,8 +592,8 @@ def _refine(
     one call (so the solver runs vectorised) and keeps the sub-bracket that holds the
     crossing or the best value: after 2 rounds a 1-degree crossing bracket is 0.02
     degrees wide (the crossing is then interpolated in it), a maximum is known to 0.2
-    degrees (its GZ to second order).  Returns the crossings (interpolated in the last bracket) and (angle, value)
-    of the maximum.
+    degrees (its GZ to second order).  Returns the crossings (interpolated in the last
+    bracket) and (angle, value) of the maximum.
     """
     brackets = {k: [lo, hi, rising] for k, (lo, hi, rising) in roots.items()}
     ends = {k: [math.nan, math.nan] for k in roots}

@@ -263,7 +263,8 @@ def trim_text(t: TrimResult, u: UnitSystem = METRIC) -> str:
             f"(trim now {trim_words(t.trim_before_deg)})."
         )
     return (
-        f"Put {t.what} at {u.length_text(t.x_after)} from the aft end (now {u.length_text(t.x_before)}): "
+        f"Put {t.what} at {u.length_text(t.x_after)} from the aft end "
+        f"(now {u.length_text(t.x_before)}): "
         f"trim {trim_words(after)} (now {trim_words(t.trim_before_deg)}), freeboard aft "
         f"{u.length_text(t.freeboard_aft)}, fore {u.length_text(t.freeboard_fore)}."
     )
@@ -280,15 +281,26 @@ def beam_text(b: BeamResult, u: UnitSystem = METRIC) -> str:
         )
     return (
         f"GM reaches {u.length_text(b.gm_after)} at a beam of {u.length_text(b.beam_after)} "
-        f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives {u.length_text(b.gm_before)}."
+        f"(×{b.factor:.3f}); the present {u.length_text(b.beam_before)} gives "
+        f"{u.length_text(b.gm_before)}."
     )
 
 
 def swamp_text(r: SwampResult, u: UnitSystem = METRIC) -> str:
     """Reserve buoyancy and the swamped hull, pointing to life jackets."""
-    head = f"Reserve buoyancy {u.mass_text(r.reserve_mass)} ({100 * r.reserve_fraction:.0f} % of the hull)."
+    head = (
+        f"Reserve buoyancy {u.mass_text(r.reserve_mass)} "
+        f"({100 * r.reserve_fraction:.0f} % of the hull)."
+    )
     if r.floats_swamped is None:
-        return head + " Closed hull: it cannot fill while its deck and seams hold. Still wear life jackets."
+        return head + (
+            " Closed hull: it cannot fill while its deck and seams hold. Still wear life jackets."
+        )
     if r.floats_swamped:
-        return head + " Swamped, the hull still floats itself and its fittings, but not the crew: wear life jackets."
-    return head + " Swamped, the hull sinks: the crew's life jackets are the only flotation - wear them."
+        return head + (
+            " Swamped, the hull still floats itself and its fittings, but not the crew: "
+            "wear life jackets."
+        )
+    return head + (
+        " Swamped, the hull sinks: the crew's life jackets are the only flotation - wear them."
+    )
