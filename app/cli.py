@@ -190,7 +190,8 @@ def _parser() -> argparse.ArgumentParser:
     pk.add_argument("--tape-roll", type=float, default=55.0, help="tape roll length, m (default 55)")
     pk.add_argument("--paint-coverage", type=float, default=10.0,
                     help="paint coverage per coat, m2 per litre (default 10)")
-    pk.add_argument("--coats", type=float, default=2.0, help="coats of paint (default 2)")
+    pk.add_argument("--coats", type=_number(0.0, 20.0, "--coats"), default=2.0,
+                    help="coats of paint (default 2)")
     pk.add_argument("--sheet-price", type=float, help="price of one sheet (for the cost)")
     pk.add_argument("--tape-price", type=float, help="price of one roll of tape")
     pk.add_argument("--paint-price", type=float, help="price of one litre of paint")
