@@ -184,6 +184,8 @@ def _parser() -> argparse.ArgumentParser:
     pk.add_argument("--strain-limit", type=float, default=0.05,
                     help="flag panels whose twist strain is above this, percent (default 0.05)")
     pk.add_argument("--frames", help="frame positions in metres from the aft end, e.g. 0.6,1.3,2.0")
+    pk.add_argument("--skin-strips", type=int, default=4,
+                    help="round-bilge hulls: skin strips a side (0: frames only; default 4)")
     pk.add_argument("--offset-spacing", metavar="LENGTH",
                     help="also tabulate panel offsets this far apart (mm unless a unit is "
                     "given: 100, 4in)")
@@ -561,6 +563,7 @@ def _pack_settings(args: argparse.Namespace) -> "PackSettings":
         scarf_ratio=args.scarf_ratio,
         strain_limit=args.strain_limit / 100.0,
         frame_x=frames,
+        skin_strips=args.skin_strips,
         offset_spacing_m=spacing,
         shopping=ShoppingSettings(
             tape_roll_m=args.tape_roll,

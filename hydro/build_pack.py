@@ -72,6 +72,7 @@ class PackSettings:
     strain_limit : flag panels whose twist strain is above this
     frame_x : frame positions (m from the aft end); None: a few evenly spaced
     tick_count : stations marked across each panel
+    skin_strips : a round-bilge hull's skin in this many strips a side (0: frames only)
     offset_spacing_m : also tabulate the offsets every this many metres (None: no)
     shopping : tape, paint and price settings
     """
@@ -85,6 +86,7 @@ class PackSettings:
     strain_limit: float = DEFAULT_STRAIN_LIMIT
     frame_x: tuple[float, ...] | None = None
     tick_count: int = 11
+    skin_strips: int = 4
     offset_spacing_m: float | None = None
     shopping: ShoppingSettings = field(default_factory=ShoppingSettings)
 
@@ -105,6 +107,8 @@ class PackSettings:
             raise PanelError("the joint must be auto, scarf or butt")
         if self.offset_spacing_m is not None and not self.offset_spacing_m > 0:
             raise PanelError("the offset spacing must be a positive number")
+        if not 0 <= self.skin_strips <= 20:
+            raise PanelError("the skin strips must number between 0 and 20 a side")
         if not 2 <= self.tick_count <= 101:
             raise PanelError("the station ticks must number between 2 and 101")
         self.shopping.validate()
@@ -325,7 +329,7 @@ def build_pack(design: Design, settings: PackSettings = PackSettings()) -> Build
     stations = design.stations()
     notes: list[str] = []
     if isinstance(design.hull, HullSketch):
-        panel_set = hull_panels(design.hull, settings.tick_count)
+        panel_set = hull_panels(design.hull, settings.tick_count, settings.skin_strips)
         smooth = any(s.smooth for s in design.hull.sections)
     else:
         panel_set = PanelSet((), (

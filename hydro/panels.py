@@ -16,7 +16,7 @@ starboard panel is its mirror image.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 import shapely
@@ -35,6 +35,8 @@ __all__ = [
     "twist_strain",
     "unroll_strip",
     "develop_strip",
+    "develop_band",
+    "unroll_onto",
     "true_end_shape",
     "chine_rows",
     "hull_panels",
@@ -272,6 +274,67 @@ def develop_strip(a: FloatArray, b: FloatArray, s: FloatArray) -> DevelopedStrip
     return DevelopedStrip(la, lb, ruling_twist(a, b, s))
 
 
+def unroll_onto(pa: FloatArray, a: FloatArray, b: FloatArray) -> FloatArray:
+    """Images of the 3D row ``b`` beside a row ``a`` already flat at ``pa`` (n, 2).
+
+    Each b[k] is placed from its 3D distances to a[k] and a[k+1] (a[k-1] for the last),
+    on the left of the row's direction, so every triangle a[k], a[k+1], b[k] keeps its
+    shape; the lengths along the new row are what a flat sheet cannot keep.
+    """
+    n = len(a)
+    pb = np.zeros((n, 2))
+    dist = lambda p, q: float(np.linalg.norm(p - q))  # noqa: E731
+    up = np.array([0.0, 1.0])
+    for k in range(n):
+        j = k + 1 if k < n - 1 else k - 1
+        if k < n - 1:
+            pb[k] = _place(pa[j], pa[k], dist(a[j], b[k]), dist(a[k], b[k]), up)
+        else:
+            pb[k] = _place(pa[k], pa[j], dist(a[k], b[k]), dist(a[j], b[k]), up)
+    return pb
+
+
+@dataclass(frozen=True, eq=False)
+class DevelopedBand:
+    """A curved strip between two lines of a smooth hull, flattened row by row.
+
+    Attributes
+    ----------
+    rows : (r, n, 2) flat images of the rows from the lower edge to the upper edge (m)
+    twist : (n,) largest twist of the sub-rulings at each station (rad)
+    stretch : largest relative change of a length along a row (the flat piece cannot
+        keep every length of a doubly curved surface)
+    """
+
+    rows: FloatArray
+    twist: FloatArray
+    stretch: float
+
+
+def develop_band(rows: FloatArray, s: FloatArray) -> DevelopedBand:
+    """Flatten the strip through the 3D rows (r, n, 3) paired at ``s``: the first two
+    rows unrolled exactly, each further row placed beside the one before (its chords
+    across the strip keep the girth), then turned onto a baseline."""
+    flat = list(unroll_strip(rows[0], rows[1]))
+    for j in range(2, len(rows)):
+        flat.append(unroll_onto(flat[-1], rows[j - 1], rows[j]))
+    images = np.stack(flat)
+    start = 0.5 * (images[0, 0] + images[-1, 0])
+    chord = 0.5 * (images[0, -1] + images[-1, -1]) - start
+    angle = -math.atan2(chord[1], chord[0])
+    rot = np.array([[math.cos(angle), -math.sin(angle)], [math.sin(angle), math.cos(angle)]])
+    images = images @ rot.T
+    images -= images.reshape(-1, 2).min(axis=0)
+    twist = np.max(
+        np.abs([ruling_twist(rows[j], rows[j + 1], s) for j in range(len(rows) - 1)]), axis=0
+    )
+    true = np.linalg.norm(np.diff(rows, axis=1), axis=2)
+    drawn = np.linalg.norm(np.diff(images, axis=1), axis=2)
+    keep = true > 1e-9
+    stretch = float(np.max(np.abs(drawn[keep] / true[keep] - 1.0))) if keep.any() else 0.0
+    return DevelopedBand(images, twist, stretch)
+
+
 def true_end_shape(section: FloatArray, rake_deg: float) -> FloatArray:
     """True shape of an end raked ``rake_deg`` from vertical: the section (y, z) outline
     stretched by 1 / cos(rake) in height (the flat end is longer along its slope)."""
@@ -362,13 +425,22 @@ class PanelSet:
     seam_m: float
 
 
-def hull_panels(sketch: HullSketch, tick_count: int = 11) -> PanelSet:
+ROUND_BILGE_NOTE = (
+    "Round-bilge (smooth) sections have no chines to cut flat panels along: the pack "
+    "gives station moulds (frames) to build over, and the skin is laid on them in strips, "
+    "planks or laminated layers."
+)
+
+
+def hull_panels(sketch: HullSketch, tick_count: int = 11, skin_strips: int = 0) -> PanelSet:
     """The hull's flat panels between chines, with station ticks and twist.
 
     Parameters
     ----------
     sketch : a hard-chine sketch (round-bilge sections give no panels)
     tick_count : stations marked across each panel, evenly spaced, both ends included
+    skin_strips : a round-bilge hull's skin split into this many strips a side, between
+        lines at equal fractions of the girth (0: frames only)
 
     Returns
     -------
@@ -381,11 +453,9 @@ def hull_panels(sketch: HullSketch, tick_count: int = 11) -> PanelSet:
     halves = half_sections_at(sketch, x)
     rows, keel_seam = chine_rows(sketch, halves)
     if not rows:
-        return PanelSet((), (
-            "Round-bilge (smooth) sections have no chines to cut flat panels along: the "
-            "pack gives station moulds (frames) to build over, and the skin is laid on "
-            "them in strips, planks or laminated layers.",
-        ), 0.0)
+        if skin_strips < 1:
+            return PanelSet((), (ROUND_BILGE_NOTE,), 0.0)
+        return _skin_strips(x, halves, skin_strips, tick_count)
     m = halves.shape[1]
     raft = bool(np.all(halves[:, 0, 1] - halves[:, :, 1].min(axis=1) > 1e-6))
     tick_idx = np.arange(tick_count) * FINE_PER_TICK
@@ -421,6 +491,57 @@ def hull_panels(sketch: HullSketch, tick_count: int = 11) -> PanelSet:
         if np.max(halves[end, :, 0]) <= 1e-6:  # a pointed end: the two sides meet
             seam += _polyline_length(halves[end])
     return PanelSet(tuple(pieces), (), float(seam))
+
+
+#: Rows across each skin strip (its curvature across is followed row by row).
+BAND_ROWS = 5
+
+
+def _girth_rows(halves: FloatArray, fractions: FloatArray) -> FloatArray:
+    """(len(fractions), S, 2) points at the given fractions of each half section's girth."""
+    seg = np.hypot(*np.diff(halves, axis=1).transpose(2, 0, 1))
+    s = np.concatenate([np.zeros((len(halves), 1)), np.cumsum(seg, axis=1)], axis=1)
+    out = np.empty((len(fractions), len(halves), 2))
+    for i, h in enumerate(halves):
+        t = fractions * s[i, -1]
+        out[:, i, 0] = np.interp(t, s[i], h[:, 0])
+        out[:, i, 1] = np.interp(t, s[i], h[:, 1])
+    return out
+
+
+def _skin_strips(x: FloatArray, halves: FloatArray, count: int, tick_count: int) -> PanelSet:
+    """A round-bilge skin in ``count`` strips a side, each flattened row by row; the
+    larger of its twist strain and its row stretch is its strain."""
+    tick_idx = np.arange(tick_count) * FINE_PER_TICK
+    fractions = np.linspace(0.0, 1.0, count * (BAND_ROWS - 1) + 1)
+    lines = _girth_rows(halves, fractions)
+    world = np.concatenate([np.broadcast_to(x[None, :, None], (*lines.shape[:2], 1)), lines],
+                           axis=2)
+    names = ["keel"] + [f"seam {k}" for k in range(1, count)] + ["sheer"]
+    pieces = []
+    for k in range(count):
+        rows = world[k * (BAND_ROWS - 1): (k + 1) * (BAND_ROWS - 1) + 1]
+        band = develop_band(rows, x)
+        dev = DevelopedStrip(band.rows[0], band.rows[-1], band.twist)
+        seg = np.mean(lines[(k + 1) * (BAND_ROWS - 1)] - lines[k * (BAND_ROWS - 1)], axis=0)
+        surface = "bottom" if abs(seg[0]) >= abs(seg[1]) else "sides"
+        piece = _strip_piece(f"skin strip {k + 1}", surface, dev, x, tick_idx, names[k],
+                             names[k + 1], False, False, rows[0], rows[-1])
+        strain = max(piece.strain, band.stretch)
+        pieces.append(replace(piece, strain=strain, notes=(
+            f"flattened row by row: lengths along it change by up to {band.stretch * 100:.2f} %",
+        )))
+    seam = sum(2 * _polyline_length(world[k * (BAND_ROWS - 1)]) for k in range(1, count))
+    seam += _polyline_length(world[0])
+    for end in (0, -1):
+        if np.max(halves[end, :, 0]) <= 1e-6:
+            seam += _polyline_length(halves[end])
+    note = (
+        f"Round-bilge (smooth) sections have no chines: the skin is given as {count} strips "
+        "a side between lines at equal fractions of the girth, flattened row by row, with "
+        "their strain; build them over the station moulds (frames)."
+    )
+    return PanelSet(tuple(pieces), (note,), float(seam))
 
 
 def _strip_piece(
@@ -475,8 +596,6 @@ def _strip_piece(
 
 
 def _unique_names(pieces: list[FlatPiece]) -> list[FlatPiece]:
-    from dataclasses import replace
-
     seen: dict[str, int] = {}
     for p in pieces:
         seen[p.name] = seen.get(p.name, 0) + 1

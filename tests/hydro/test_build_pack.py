@@ -122,9 +122,21 @@ def test_non_positive_allowances_and_ratios_are_refused(settings):
 
 
 def test_round_bilge_pack_is_frames_only_with_a_note():
-    pack = build_pack(load_design(SAMPLES / "paper-loon-canoe.json"))
+    design = load_design(SAMPLES / "paper-loon-canoe.json")
+    pack = build_pack(design, PackSettings(skin_strips=0))
     assert {j.piece.kind for j in pack.jobs} == {"frame"}
     assert any("Round-bilge" in n for n in pack.notes)
+
+
+def test_round_bilge_skin_strips_cover_the_hull_and_say_their_strain():
+    design = load_design(SAMPLES / "paper-loon-canoe.json")
+    pack = build_pack(design, PackSettings(skin_strips=4))
+    strips = [j.piece for j in pack.jobs if j.piece.name.startswith("skin strip")]
+    assert len(strips) == 4 and all(p.mirrored and p.count == 2 for p in strips)
+    area = sum(p.area_m2 * p.count for p in strips)
+    assert area == pytest.approx(float(shell_panels(design.stations()).area.sum()), rel=2e-3)
+    assert any(w.startswith("skin strip 1:") for w in pack.warnings)
+    assert pack.materials.seam_m > 0
 
 
 def test_laminate_joints_are_staggered_between_layers():

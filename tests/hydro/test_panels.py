@@ -255,3 +255,29 @@ def test_raft_edges_and_frame_points_read_as_a_builder_names_them():
     rows = offset_rows(end)
     assert rows[0][1][0] == pytest.approx(0.0)  # starts on the centreline at the bottom
     assert max(r[1][0] for r in rows) == pytest.approx(0.78)  # out to the gunwale
+
+
+@pytest.mark.source(DO_CARMO)
+def test_cylinder_band_flattens_row_by_row_to_a_rectangle():
+    # rows along the generators of a cylinder, R = 0.5, a quarter turn in four steps:
+    # the flat band is L wide x the sum of the chords, and no length changes
+    from hydro.panels import develop_band
+
+    r, x = 0.5, np.linspace(0.0, 2.0, 41)
+    theta = np.linspace(0.0, math.pi / 2, 5)
+    rows = np.stack([np.column_stack([x, r * np.cos(t) + 0 * x, r * np.sin(t) + 0 * x])
+                     for t in theta])
+    band = develop_band(rows, x)
+    chords = 4 * 2 * r * math.sin(math.pi / 16)
+    outline = np.vstack([band.rows[0], band.rows[-1][::-1]])
+    assert is_rectangle(outline, 2.0, chords)
+    assert band.stretch < 1e-12 and np.max(band.twist) < 1e-12
+
+
+def test_doubly_curved_band_shows_its_stretch():
+    from hydro.panels import develop_band
+
+    x = np.linspace(-1.0, 1.0, 81)
+    rows = np.stack([np.column_stack([x, 0 * x + y, (x**2 + y**2) / 2.0])
+                     for y in np.linspace(0.0, 0.4, 5)])
+    assert develop_band(rows, x).stretch > 1e-3
