@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
     QHBoxLayout,
     QHeaderView,
     QLabel,
+    QLineEdit,
     QListWidget,
     QListWidgetItem,
     QPushButton,
@@ -40,7 +41,8 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from hydro import Design, HullSketch, HullwrightError, scale_breadth
+from hydro import HEAVY_CREW_MASS_KG, Design, HullSketch, HullwrightError, scale_breadth
+from hydro.limits import MAX_CREW_KG
 from hydro import aids, incline
 from hydro.heel_checks import HeelCheck
 from hydro.incline import InclineReading, InclineResult
@@ -246,10 +248,32 @@ class ChecksPanel(QWidget):
         self.whatif.setFont(style.figure_font())
         self.swamp_text = QLabel()
         self.swamp_text.setWordWrap(True)
+        self.whatif_crew = QLineEdit()
+        self.whatif_crew.setToolTip(
+            "The mass of each crew member in the heavier-crew case, in the load list's order, "
+            "separated by commas. Empty: each at least 84 kg (46 CFR 170.090); children are "
+            "lighter."
+        )
+        self.whatif_crew.editingFinished.connect(self._on_whatif_inputs)
+        self.wet_box = QDoubleSpinBox()
+        self.wet_box.setRange(0.5, 5.0)
+        self.wet_box.setSingleStep(0.1)
+        self.wet_box.setPrefix("× ")
+        self.wet_box.setKeyboardTracking(False)
+        self.wet_box.editingFinished.connect(self._on_whatif_inputs)
+        self.bilge_box = self._spin(0.0, 1e4)
+        self.bilge_box.editingFinished.connect(self._on_whatif_inputs)
+        cases = QFormLayout()
+        cases.addRow("Heavier crew", self.whatif_crew)
+        cases.addRow("Soaked materials", self.wet_box)
+        cases.addRow("Bilge water", self.bilge_box)
+        side = QVBoxLayout()
+        side.addLayout(cases)
+        side.addWidget(self.swamp_text, 1)
         tab = QWidget()
         row = QHBoxLayout(tab)
         row.addWidget(self.whatif, 3)
-        row.addWidget(self.swamp_text, 2)
+        row.addLayout(side, 2)
         return tab
 
     def _incline_tab(self) -> QWidget:
@@ -347,6 +371,7 @@ class ChecksPanel(QWidget):
             [f"weight ({u.mass})", f"moved ({u.length}, + stbd)", "heel (°)",
              f"pendulum ({u.length})", f"deflection ({u.length})"]
         )
+        self._show_cases(self.document.committed)
         self._show(self.results)
 
     def _convert_readings(self, old: UnitSystem, new: UnitSystem) -> None:
@@ -407,14 +432,23 @@ class ChecksPanel(QWidget):
         button.setChecked(True)
         self.mode_group.blockSignals(False)
         u = self.options.units
+        self.bilge_box.setDecimals(u.length_decimals)
+        self.bilge_box.setSuffix(f" {u.length}")
         for box, value in (
             (self.distance_box, u.to_length(self._distance)),
             (self.target_box, u.to_length(cs.target_gm_m)),
             (self.boarding_box, u.to_mass(cs.boarding_mass_kg)),
+            (self.wet_box, cs.whatif_wet_factor),
+            (self.bilge_box, u.to_length(cs.whatif_bilge_m)),
         ):
             box.blockSignals(True)
             box.setValue(value)
             box.blockSignals(False)
+        masses = cs.whatif_crew_kg
+        self.whatif_crew.setPlaceholderText(f"each at least {u.mass_text(HEAVY_CREW_MASS_KG)}")
+        self.whatif_crew.setText(
+            "" if masses is None else ", ".join(u.mass_text(m, unit=False) for m in masses)
+        )
 
     def _on_inputs(self, *_args: object) -> None:
         """The builder changed a case: save it in the design (one undo step)."""
@@ -441,6 +475,36 @@ class ChecksPanel(QWidget):
         if subject != self.trim_choice:
             self.trim_choice = subject  # type: ignore[assignment]
             self._timer.start()
+
+    def _on_whatif_inputs(self) -> None:
+        """The builder changed a what-if case: save it in the design (one undo step)."""
+        u = self.options.units
+        design = self.document.committed
+        text = self.whatif_crew.text().strip()
+        masses: tuple[float, ...] | None = None
+        if text:
+            try:
+                masses = tuple(u.from_mass(float(v)) for v in text.replace(";", ",").split(","))
+            except ValueError:
+                masses = ()
+            crew = len(design.loads.crew)
+            if len(masses) != crew or not all(0 < m <= MAX_CREW_KG for m in masses):
+                self.state.setText(
+                    f"Heavier crew: give {crew} mass(es), one per crew member, each up to "
+                    f"{u.mass_text(MAX_CREW_KG)}, separated by commas (or leave it empty)."
+                )
+                self._show_cases(design)
+                return
+        cases = replace(
+            design.checks,
+            whatif_crew_kg=masses,
+            whatif_wet_factor=self.wet_box.value(),
+            whatif_bilge_m=u.from_length(self.bilge_box.value()),
+        )
+        if cases != design.checks and not self.document.edit(
+            replace(design, checks=cases), "Change the what-if cases"
+        ):
+            self._show_cases(design)
 
     # ------------------------------------------------------------ background runs
 

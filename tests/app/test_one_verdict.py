@@ -179,3 +179,26 @@ def test_plate_honours_the_open_or_closed_hull(open_boat, monkeypatch):
     texts = _plate_texts(design, monkeypatch)
     assert any("open boat floods beyond" in t for t in texts) == open_boat
     assert any(t.startswith("deck edge under") for t in texts) == (not open_boat)
+
+
+def test_what_if_crew_masses_are_saved_with_the_design(qtbot):
+    """Children are not 84 kg adults: the what-if crew masses are the builder's, saved
+    in the design (one undo step), and the what-if row uses them."""
+    doc = HullDocument(sample("heron-punt"))
+    options = ViewOptions()
+    widget = ChecksPanel(doc, options, None)
+    qtbot.addWidget(widget)
+    try:
+        widget.whatif_crew.setText("40, 45")
+        with qtbot.waitSignal(widget.checksReady, timeout=30000):
+            widget.whatif_crew.editingFinished.emit()
+        assert doc.committed.checks.whatif_crew_kg == pytest.approx((40.0, 45.0))
+        assert doc.undo_stack.count() == 1
+        row = next(r for r in widget.results.sensitivity if r.kind == "heavier crew")
+        assert row.amount == pytest.approx(45.0)
+        widget.whatif_crew.setText("40")  # one mass for two paddlers: refused in words
+        widget.whatif_crew.editingFinished.emit()
+        assert doc.undo_stack.count() == 1 and "give 2 mass" in widget.state.text()
+        assert widget.whatif_crew.text() == "40.0, 45.0"
+    finally:
+        widget.shutdown()
