@@ -389,6 +389,7 @@ def _check_settings(args: argparse.Namespace, design: Design) -> Design:
 
 def _check(args: argparse.Namespace) -> None:
     design = _check_settings(args, load_design(args.design))
+    limits.check_design(design, limits.MAX_CHECK_WORK, "MAX_CHECK_WORK")
     result = assess(design)
     if not result.floats:
         raise BadInput(result.analysis.message)
@@ -481,6 +482,11 @@ def _plate(args: argparse.Namespace) -> None:
     if not 72 <= args.dpi <= 600:
         raise BadInput("--dpi must be between 72 and 600")
     design = load_design(args.design)
+    limits.check_design(design, limits.MAX_CHECK_WORK, "MAX_CHECK_WORK")  # it shows the checks
+    if sys.platform.startswith("linux") and not (
+        os.environ.get("DISPLAY") or os.environ.get("WAYLAND_DISPLAY")
+    ):
+        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")  # no screen: Qt would abort
     from app.plate import PAPER_SIZES, render_plate_file
 
     if args.paper.upper() not in {k.upper() for k in PAPER_SIZES}:

@@ -6,10 +6,11 @@ one analysis (measured by ``bench/limits.py``), and sizes or masses beyond small
 reality get a plain message instead of a silent absurd answer.  Each refusal raises
 :class:`LimitError` naming the limit.
 
-Measured cost of one analysis (``bench/limits.py``, one core of the shared build
-machine): about 1e-7 s and 16 bytes per unit of work, a unit being one station x one
-outline vertex (mirrored section, 2 n - 1 vertices) x one heel angle.  So
-:data:`MAX_WORK` = 1.5e7 units is about 1.5 s and 300 MB; the samples need 1e5 - 4e5.
+Measured cost of one analysis (``bench/limits.py`` on the shared two-core build
+machine): 4e-8 to 1e-7 s and about 16 bytes per unit of work, a unit being one station x
+one outline vertex (mirrored section, 2 n - 1 vertices) x one heel angle.  So
+:data:`MAX_WORK` = 1.5e7 units is 0.5 to 1.5 s and about 300 MB; the samples need 1e5 to
+4e5.  A sketch's exact crossing check has its own budget, :data:`MAX_OUTLINE_CHECK`.
 """
 
 from __future__ import annotations
@@ -40,6 +41,8 @@ __all__ = [
     "MAX_SHAPE_POINTS",
     "MAX_HEEL_ANGLES",
     "MAX_WORK",
+    "MAX_OUTLINE_CHECK",
+    "MAX_CHECK_WORK",
     "MAX_CREW",
     "MAX_ITEMS",
     "MAX_MATERIALS",
@@ -94,6 +97,14 @@ MAX_SHAPE_POINTS = 33
 MAX_HEEL_ANGLES = 1801
 #: Stations x outline vertices x heel angles of one analysis (see the module note).
 MAX_WORK = 15_000_000
+#: A sketch's stations are each checked exactly for crossing edges, every pair of edges
+#: of the mirrored outline: stations x vertices^2, about 1.5e-7 s and 35 bytes a unit
+#: (measured by bench/limits.py), so 6.5e6 is about 1 s and 250 MB.  The default 41
+#: stations take shapes up to 33 points; 401 stations, smooth shapes up to 11 points.
+MAX_OUTLINE_CHECK = 6_500_000
+#: The builder's checks (``hullwright check``) analyse a design about a dozen times, so
+#: their work per analysis is capped lower: 2.5e6 keeps the whole run near 2 s.
+MAX_CHECK_WORK = 2_500_000
 MAX_CREW = 50
 MAX_ITEMS = 500
 MAX_MATERIALS = 50
@@ -135,16 +146,18 @@ def check_count(what: str, count: int, limit: int, name: str) -> None:
         raise LimitError(f"{count} {what} is more than this program handles (at most {limit}, {name})")
 
 
-def check_work(stations: int, vertices: int, angles: int) -> None:
+def check_work(
+    stations: int, vertices: int, angles: int, limit: int = MAX_WORK, name: str = "MAX_WORK"
+) -> None:
     """Refuse an analysis whose work (stations x outline vertices x heel angles) is
-    beyond :data:`MAX_WORK`, naming the budget and what to reduce."""
+    beyond ``limit`` (:data:`MAX_WORK`), naming the budget and what to reduce."""
     check_count("stations", stations, MAX_STATIONS, "MAX_STATIONS")
     check_count("heel angles", angles, MAX_HEEL_ANGLES, "MAX_HEEL_ANGLES")
     work = stations * vertices * angles
-    if work > MAX_WORK:
+    if work > limit:
         raise LimitError(
             f"too much work for one analysis: {stations} stations x {vertices} outline points "
-            f"x {angles} heel angles = {work:.3g} (at most {MAX_WORK:.3g}, MAX_WORK); "
+            f"x {angles} heel angles = {work:.3g} (at most {limit:.3g}, {name}); "
             "use fewer stations or points, or a larger heel step"
         )
 
@@ -216,9 +229,10 @@ def _outline_vertices(design: Design) -> tuple[int, int]:
     return hull.station_count, 2 * n - 1
 
 
-def check_design(design: Design) -> None:
+def check_design(design: Design, work: int = MAX_WORK, work_name: str = "MAX_WORK") -> None:
     """Every limit of this module for a whole design: hull size and budget, crew and
-    item masses and counts, the work of one analysis.  Quick (no analysis)."""
+    item masses and counts, the work of one analysis (at most ``work``, whose constant
+    is ``work_name``).  Quick (no analysis)."""
     if isinstance(design.hull, Stations):
         check_stations(design.hull)
     elif isinstance(design.hull, HullSketch):
@@ -249,7 +263,14 @@ def check_design(design: Design) -> None:
                 f"({MIN_WATER_DENSITY:g} to {MAX_WATER_DENSITY:g} kg/m3)"
             )
     stations, vertices = _outline_vertices(design)
-    check_work(stations, vertices, int(design.settings.heel_angles().size))
+    if isinstance(design.hull, HullSketch) and stations * vertices**2 > MAX_OUTLINE_CHECK:
+        raise LimitError(
+            f"too many stations for shapes this detailed: {stations} stations x "
+            f"({vertices} outline points)^2 = {stations * vertices**2:.3g} to check "
+            f"(at most {MAX_OUTLINE_CHECK:.3g}, MAX_OUTLINE_CHECK); use fewer stations "
+            "or fewer points in the section shapes"
+        )
+    check_work(stations, vertices, int(design.settings.heel_angles().size), work, work_name)
 
 
 def _check_coordinates(largest: float) -> None:

@@ -314,3 +314,14 @@ def test_a_closed_pipe_ends_quietly():
     r = subprocess.run(f"{sys.executable} -m app.cli report {PUNT} | head -1", shell=True, cwd=ROOT,
                        capture_output=True, text=True, timeout=60)
     assert r.stdout.startswith("Hullwright report") and r.stderr == ""
+
+
+def test_the_builders_checks_have_their_own_smaller_budget(capsys, tmp_path):
+    design = json.loads(PUNT.read_text())
+    design["hull"]["sketch"]["station_count"] = 401
+    design["analysis"].update(heel_step_deg=0.1, heel_max_deg=180.0)
+    path = tmp_path / "fine.json"
+    path.write_text(json.dumps(design))
+    load_design(path)  # one analysis is within MAX_WORK
+    code, _, err = _cli(capsys, ["check", str(path)])
+    assert code == 2 and "MAX_CHECK_WORK" in err
