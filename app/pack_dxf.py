@@ -1,8 +1,8 @@
 """One DXF file per stock sheet for CNC routers and laser cutters (ezdxf).
 
 Coordinates in millimetres ($INSUNITS = mm), origin at a sheet corner, X along the
-sheet's length.  Layers: CUT (piece outlines and the sheet's edge), MARK (station
-lines, waterlines and seats to scribe or pen), TEXT (piece labels).
+sheet's length.  Layers: CUT (piece outlines), MARK (station lines, waterlines and seats
+to scribe or pen), TEXT (piece labels), SHEET (the stock sheet's edge, for reference).
 """
 
 from __future__ import annotations
