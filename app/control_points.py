@@ -27,11 +27,15 @@ class ControlPoints(Markers):
     Signals
     -------
     pointSelected(int) : a point was clicked or a drag on it started
+    pointToggled(int) : a point was Shift- or Ctrl-clicked (add to or take from the group)
+    menuRequested(int, QPoint) : a point was right-clicked (screen position)
     pointDragged(int, float, float) : the user drags point i towards (x, y)
     dragFinished(int) : the drag of point i ended with the button released
     """
 
     pointSelected = Signal(int)
+    pointToggled = Signal(int)
+    menuRequested = Signal(int, object)
     pointDragged = Signal(int, float, float)
     dragFinished = Signal(int)
 
@@ -41,6 +45,7 @@ class ControlPoints(Markers):
         self._plain = marker_style("o", HANDLE_SIZE, edge, brush)
         self._marked = marker_style("o", SELECTED_SIZE, edge, style.SELECTED)
         self._selected: int | None = None
+        self._group: frozenset[int] = frozenset()
         self._hovered: int | None = None
         self._drag_index: int | None = None
         self._offset = QPointF()
@@ -58,8 +63,14 @@ class ControlPoints(Markers):
             self._hovered = None
         self._show(x, y)
 
+    def set_group(self, indices: frozenset[int]) -> None:
+        """Mark these points too (a group selected together)."""
+        if indices != self._group:
+            self._group = indices
+            self._show(*self.getData())
+
     def _show(self, x, y) -> None:
-        marked = {self._selected, self._hovered}
+        marked = {self._selected, self._hovered} | self._group
         styles = [self._marked if i in marked else self._plain for i in range(len(x))]
         self.set_markers(x, y, styles)
 
@@ -79,15 +90,17 @@ class ControlPoints(Markers):
             self._show(*self.getData())
 
     def mouseClickEvent(self, ev) -> None:
-        if ev.button() != Qt.MouseButton.LeftButton:
-            ev.ignore()
-            return
         index = self.index_at(ev.pos())
-        if index is None:
+        if index is None or ev.button() not in (Qt.MouseButton.LeftButton, Qt.MouseButton.RightButton):
             ev.ignore()
             return
         ev.accept()
-        self.pointSelected.emit(index)
+        if ev.button() == Qt.MouseButton.RightButton:
+            self.menuRequested.emit(index, ev.screenPos().toPoint())
+        elif ev.modifiers() & (Qt.KeyboardModifier.ShiftModifier | Qt.KeyboardModifier.ControlModifier):
+            self.pointToggled.emit(index)
+        else:
+            self.pointSelected.emit(index)
 
     def mouseDragEvent(self, ev) -> None:
         if ev.button() != Qt.MouseButton.LeftButton:

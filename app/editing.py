@@ -38,6 +38,9 @@ __all__ = [
     "insert_point",
     "insert_section_point",
     "delete_point",
+    "refs_in_box",
+    "move_points",
+    "toggle_smooth",
 ]
 
 #: The curves along the hull, by the name a PointRef uses.
@@ -305,3 +308,54 @@ def delete_point(sketch: HullSketch, ref: PointRef) -> HullSketch:
     pts = curve.points[: ref.index] + curve.points[ref.index + 1 :]
     return replace(sketch, **{ref.curve: replace(curve, points=pts)})
 
+
+
+def refs_in_box(
+    sketch: HullSketch, refs: tuple[PointRef, ...], x0: float, y0: float, x1: float, y1: float
+) -> tuple[PointRef, ...]:
+    """The points among ``refs`` drawn inside the box (corners in any order)."""
+    lo_x, hi_x = min(x0, x1), max(x0, x1)
+    lo_y, hi_y = min(y0, y1), max(y0, y1)
+    inside = []
+    for ref in refs:
+        x, y = point_position(sketch, ref)
+        if lo_x <= x <= hi_x and lo_y <= y <= hi_y:
+            inside.append(ref)
+    return tuple(inside)
+
+
+def move_points(sketch: HullSketch, refs: tuple[PointRef, ...], dx: float, dy: float) -> Move:
+    """Move several points together by (dx, dy), each held by the rules of :func:`move_point`.
+
+    Points are moved leading edge first (the one furthest in the direction of travel),
+    so a group keeps its order along the hull instead of being stopped by itself.
+
+    >>> from hydro import Curve, HullSketch, SectionShape
+    >>> s = HullSketch(Curve(((0, .3), (1, .4), (2, .4), (3, .3))), Curve(((0, 0), (3, 0))),
+    ...                Curve(((0, .4), (3, .4))), (SectionShape(1.5, ((0, 0), (1, 1))),))
+    >>> moved = move_points(s, (PointRef("plan", 1), PointRef("plan", 2)), 0.5, 0.05).sketch
+    >>> [(round(x, 3), round(b, 3)) for x, b in moved.plan.points]
+    [(0, 0.3), (1.5, 0.45), (2.5, 0.45), (3, 0.3)]
+    """
+    if not refs:
+        return Move(sketch)
+    start = {ref: point_position(sketch, ref) for ref in refs}
+    order = sorted(refs, key=lambda r: start[r][0], reverse=dx > 0)
+    notes: list[str] = []
+    for ref in order:
+        x, y = start[ref]
+        move = move_point(sketch, ref, x + dx, y + dy)
+        sketch = move.sketch
+        if move.note and move.note not in notes:
+            notes.append(move.note)
+    return Move(sketch, "; ".join(notes))
+
+
+def toggle_smooth(sketch: HullSketch, ref: PointRef) -> HullSketch:
+    """The point's curve (or section shape) switched between smooth and corners."""
+    if ref.curve == "section":
+        shapes = list(sketch.sections)
+        shapes[ref.shape] = replace(shapes[ref.shape], smooth=not shapes[ref.shape].smooth)
+        return replace(sketch, sections=tuple(shapes))
+    curve = _curve(sketch, ref.curve)
+    return replace(sketch, **{ref.curve: replace(curve, smooth=not curve.smooth)})

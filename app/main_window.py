@@ -77,8 +77,11 @@ KEYS_HELP = """<table cellpadding='3'>
 <tr><td><b>Drag an orange handle</b></td><td>move a point; the readout follows live</td></tr>
 <tr><td><b>Esc</b> during a drag</td><td>put the point back</td></tr>
 <tr><td><b>Click</b> a handle</td><td>select it; type exact figures below the drawings</td></tr>
-<tr><td><b>Arrow keys</b></td><td>nudge the selected point (1 mm or 1/16 in)</td></tr>
+<tr><td><b>Arrow keys</b></td><td>nudge the selected points, as on screen (1 mm or 1/16 in)</td></tr>
 <tr><td><b>Shift + arrows</b></td><td>nudge ten times as far</td></tr>
+<tr><td><b>Shift-drag</b> on paper</td><td>select the points in a box (Ctrl-drag adds)</td></tr>
+<tr><td><b>Shift/Ctrl-click</b> a handle</td><td>add it to the selection or take it out</td></tr>
+<tr><td><b>Right-click</b> a handle</td><td>delete, corners or smooth, type coordinates</td></tr>
 <tr><td><b>Double-click</b> a line</td><td>add a point there</td></tr>
 <tr><td><b>Delete</b></td><td>remove the selected point</td></tr>
 <tr><td><b>Wheel / right-drag</b></td><td>zoom; left-drag on paper pans</td></tr>
@@ -161,6 +164,7 @@ class MainWindow(QMainWindow):
         self.statusBar().addPermanentWidget(self.cursor_label)
         for view in self.views:
             view.cursorMoved.connect(self.cursor_label.setText)
+            view.typeCoordinatesRequested.connect(self._type_coordinates)
 
         self._build_actions()
         self._build_menus()
@@ -317,6 +321,11 @@ class MainWindow(QMainWindow):
             bar.addAction(action)
         bar.addSeparator()
         bar.addAction(self.plate_action)
+
+    def _type_coordinates(self) -> None:
+        box = self.point_entry.first
+        box.setFocus()
+        box.selectAll()
 
     def _show_undo_text(self, _text: str = "") -> None:
         """What Undo and Redo would do, in their tooltips (their labels stay put)."""

@@ -7,6 +7,9 @@ button, and the editing gestures:
 - drag a handle (one undo step per drag; Esc cancels it), snapping to the grid if on;
 - click a handle to select it; arrow keys nudge it (Shift: ten times as far), merged
   into one undo step per point;
+- Shift- or Ctrl-drag on the paper draws a box that selects the points inside it;
+  Shift- or Ctrl-click adds or takes a point; a group drags and nudges together (one
+  undo step); right-click on a point: delete, corners or smooth, type coordinates;
 - double-click on or near a line to add a point there; Delete removes the selected one;
 - the cursor position goes to ``cursorMoved`` in the current units.
 
@@ -20,7 +23,7 @@ from dataclasses import replace
 
 import pyqtgraph as pg
 from PySide6.QtCore import QEvent, QObject, QPointF, QRectF, Qt, Signal
-from PySide6.QtWidgets import QHBoxLayout, QLabel, QToolButton, QVBoxLayout, QWidget
+from PySide6.QtWidgets import QHBoxLayout, QLabel, QMenu, QToolButton, QVBoxLayout, QWidget
 
 from hydro import Analysis, HullSketch
 
@@ -41,15 +44,45 @@ _ARROWS = {
 }
 
 
+class SelectBox(pg.ViewBox):
+    """A view box where Shift- or Ctrl-drag with the left button draws a selection box.
+
+    Signals
+    -------
+    boxSelected(QRectF, bool) : the box in data coordinates; True if Ctrl was held
+        (add to the group) rather than Shift (a new group)
+    """
+
+    boxSelected = Signal(object, bool)
+
+    def mouseDragEvent(self, ev, axis=None) -> None:
+        mods = ev.modifiers()
+        boxing = Qt.KeyboardModifier.ShiftModifier | Qt.KeyboardModifier.ControlModifier
+        if ev.button() != Qt.MouseButton.LeftButton or not mods & boxing:
+            super().mouseDragEvent(ev, axis)
+            return
+        ev.accept()
+        if ev.isFinish():
+            self.rbScaleBox.hide()
+            a = self.mapToView(ev.buttonDownPos())
+            b = self.mapToView(ev.pos())
+            add = bool(mods & Qt.KeyboardModifier.ControlModifier)
+            self.boxSelected.emit(QRectF(a, b).normalized(), add)
+        else:
+            self.updateScaleBox(ev.buttonDownPos(), ev.pos())
+
+
 class SketchView(QWidget):
     """Base class of the three editors (see the module docstring).
 
     Signals
     -------
     cursorMoved(str) : cursor position as text in the current units ("" when it leaves)
+    typeCoordinatesRequested : the user asked (point menu) to type the point's coordinates
     """
 
     cursorMoved = Signal(str)
+    typeCoordinatesRequested = Signal()
 
     #: Short names of the two plotted coordinates (cursor readout) and axis titles.
     x_name = "x"
@@ -64,6 +97,7 @@ class SketchView(QWidget):
         self._handles: dict[str, ControlPoints] = {}
         self._fitted = False
         self._drawn: tuple | None = None
+        self.group: tuple[PointRef, ...] = ()  # points selected together (two or more)
 
         self.title = QLabel(f"<b>{title}</b>")
         self.hint = QLabel(hint)
@@ -79,7 +113,9 @@ class SketchView(QWidget):
         self.header.addWidget(self.hint, 1)
         self.header.addWidget(fit)
 
-        self.plot = pg.PlotWidget(background=style.PAPER)
+        self.select_box = SelectBox()
+        self.select_box.boxSelected.connect(self._on_box_selected)
+        self.plot = pg.PlotWidget(background=style.PAPER, viewBox=self.select_box)
         self.plot.setMenuEnabled(False)
         self.plot.hideButtons()
         self.plot.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
@@ -100,7 +136,8 @@ class SketchView(QWidget):
 
         document.designChanging.connect(self.refresh)
         document.designChanged.connect(self.refresh)
-        document.selectionChanged.connect(self.refresh)
+        document.selectionChanged.connect(self._on_selection_changed)
+        document.designChanged.connect(self._drop_stale_group)
         document.analysisReady.connect(self.show_analysis)
         options.changed.connect(self.apply_options)
 
@@ -110,7 +147,9 @@ class SketchView(QWidget):
         """Put a handle item on the plot and route its gestures to the document."""
         self._handles[curve] = item
         self.plot.addItem(item)
-        item.pointSelected.connect(lambda i, c=curve: self.document.select(self.ref_for(c, i)))
+        item.pointSelected.connect(lambda i, c=curve: self._select_one(self.ref_for(c, i)))
+        item.pointToggled.connect(lambda i, c=curve: self._toggle(self.ref_for(c, i)))
+        item.menuRequested.connect(lambda i, pos, c=curve: self.point_menu(self.ref_for(c, i), pos))
         item.pointDragged.connect(lambda i, x, y, c=curve: self._on_dragged(c, i, x, y))
         item.dragFinished.connect(lambda i, c=curve: self._on_drag_finished(c, i))
 
@@ -125,6 +164,80 @@ class SketchView(QWidget):
     def sketch(self) -> HullSketch | None:
         hull = self.document.design.hull
         return hull if isinstance(hull, HullSketch) else None
+
+    # ------------------------------------------------------------ selection
+
+    def all_refs(self) -> tuple[PointRef, ...]:
+        """Every control point drawn in this view."""
+        refs = []
+        for curve, item in self._handles.items():
+            refs += [self.ref_for(curve, i) for i in range(len(item.getData()[0]))]
+        return tuple(refs)
+
+    def set_group(self, refs: tuple[PointRef, ...]) -> None:
+        """Select these points together (the first becomes the document's selection)."""
+        self.group = tuple(dict.fromkeys(refs)) if len(refs) > 1 else ()
+        self.document.select(refs[0] if refs else None)
+        self._show_group()
+
+    def _select_one(self, ref: PointRef) -> None:
+        if ref in self.group and self._handles[ref.curve].dragging:
+            return  # a drag on one of the group starts: keep the group
+        self.group = ()
+        self.document.select(ref)
+        self._show_group()
+
+    def _toggle(self, ref: PointRef) -> None:
+        current = self.group or ((self.document.selection,) if self.document.selection else ())
+        current = tuple(r for r in current if self.owns(r))
+        refs = tuple(r for r in current if r != ref) if ref in current else current + (ref,)
+        self.set_group(refs)
+
+    def _on_box_selected(self, rect: QRectF, add: bool) -> None:
+        sketch = self.sketch()
+        if sketch is None:
+            return
+        inside = editing.refs_in_box(
+            sketch, self.all_refs(), rect.left(), rect.top(), rect.right(), rect.bottom()
+        )
+        self.set_group((self.group if add else ()) + inside)
+
+    def _on_selection_changed(self) -> None:
+        if self.group and self.document.selection not in self.group:
+            self.group = ()
+            self._show_group()
+        self.refresh()
+
+    def _drop_stale_group(self) -> None:
+        if self.group and set(self.group) - set(self.all_refs()):
+            self.group = ()
+            self._show_group()
+
+    def _show_group(self) -> None:
+        for curve, item in self._handles.items():
+            item.set_group(frozenset(r.index for r in self.group if r.curve == curve))
+
+    def point_menu(self, ref: PointRef, pos) -> QMenu:
+        """The right-click menu of a point: delete, corners or smooth, type coordinates."""
+        sketch = self.sketch()
+        menu = QMenu(self)
+        if sketch is None:
+            return menu
+        self._select_one(ref)
+        menu.addAction("Delete point", self.document.remove_selected_point)
+        smooth = (
+            sketch.sections[ref.shape].smooth if ref.curve == "section"
+            else getattr(sketch, ref.curve).smooth
+        )
+        what = "section shape" if ref.curve == "section" else f"{ref.curve} line"
+        menu.addAction(
+            f"Make the {what} {'hard-chine (corners)' if smooth else 'smooth'}",
+            lambda: self.commit_sketch(editing.toggle_smooth(sketch, ref), f"{what.capitalize()} "
+                                       f"{'corners' if smooth else 'smooth'}"),
+        )
+        menu.addAction("Type coordinates…", self.typeCoordinatesRequested.emit)
+        menu.popup(pos)
+        return menu
 
     def selected_index(self, curve: str) -> int | None:
         ref = self.document.selection
@@ -208,11 +321,18 @@ class SketchView(QWidget):
         if self.options.snap:
             step = editing.grid_step(self.options.units.name)
             x, y = editing.snap(x, step), editing.snap(y, step)
-        move = editing.move_point(sketch, self.ref_for(curve, index), x, y)
+        ref = self.ref_for(curve, index)
+        if ref in self.group:  # the group follows the point, by the same amount
+            x0, y0 = editing.point_position(sketch, ref)
+            move = editing.move_points(sketch, self.group, x - x0, y - y0)
+        else:
+            move = editing.move_point(sketch, ref, x, y)
         self.document.preview(replace(self.document.design, hull=move.sketch), move.note)
 
     def _on_drag_finished(self, curve: str, index: int) -> None:
-        self.document.finish_preview(f"Drag {self.ref_for(curve, index).label()}")
+        ref = self.ref_for(curve, index)
+        text = f"Drag {len(self.group)} points" if ref in self.group else f"Drag {ref.label()}"
+        self.document.finish_preview(text)
 
     def cancel_drag(self) -> bool:
         """Esc: abandon a drag in progress; True if there was one."""
@@ -230,10 +350,15 @@ class SketchView(QWidget):
         if ref is None or sketch is None or not self.owns(ref) or self.document.is_previewing:
             return
         step = editing.nudge_step(self.options.units.name, coarse)
-        move = editing.nudge_point(sketch, ref, dx * step, dy * step)
+        if self.group:
+            move = editing.move_points(sketch, self.group, dx * step, dy * step)
+            text, key = f"Nudge {len(self.group)} points", ("nudge", self.group)
+        else:
+            move = editing.nudge_point(sketch, ref, dx * step, dy * step)
+            text, key = f"Nudge {ref.label()}", ("nudge", ref)
         if move.note:
             self.document.notice.emit(f"Held: {move.note}")
-        self.commit_sketch(move.sketch, f"Nudge {ref.label()}", merge_key=("nudge", ref))
+        self.commit_sketch(move.sketch, text, merge_key=key)
 
     def commit_sketch(self, sketch: HullSketch, text: str, merge_key: object | None = None) -> bool:
         """Commit a new hull sketch as one undo step (False if the document refused it)."""
