@@ -432,6 +432,10 @@ class _Points:
     tau: FloatArray
 
 
+#: A point started between two solved heels must end this near its start, as a fraction
+#: of the hull's depth (h, plus the trim's change over the length): else it jumped.
+NEAR_START = 0.1
+
 #: (h, tau) at each heel: where to start the solver, or where it found the boat.
 Waterlines = tuple[FloatArray, FloatArray]
 
@@ -493,19 +497,22 @@ def _solve_heels(
     """(h, tau, xi_b, converged, repaired) at every heel, from ``start``.
 
     With free trim, Newton's method from ``start`` first; then the solutions are followed
-    from ``anchor`` (heel by heel with ``chain``), which also settles most angles Newton
-    left.  Angles still without a floating position take the safeguarded path from the
+    heel by heel from ``anchor`` (``chain``), which also settles most angles Newton left;
+    without ``chain`` a solution must stay within ``NEAR_START`` of the hull's depth of
+    its start.  Angles still without a floating position take the safeguarded path from the
     anchor, and then a restart from a level waterline.
     """
     eq = solve_equilibrium(
         table, frame, volume, weights.lcg, eta_g, start[0], start[1], free_trim, safeguard=False
     )
     repaired = False
-    if free_trim:
-        nb = None if chain else np.full(frame.phi.size, -1)
-        eq, repaired = follow_branch(
-            table, frame, volume, weights.lcg, eta_g, eq, anchor[0], anchor[1], nb
-        )
+    if free_trim and chain:
+        eq, repaired = follow_branch(table, frame, volume, weights.lcg, eta_g, eq, *anchor)
+    elif free_trim:  # started between solved neighbours: the solution stays near its start
+        length = float(table.x[-1] - table.x[0])
+        reach = NEAR_START * (frame.eta_high - frame.eta_low)
+        near = np.abs(eq.h - start[0]) + length * np.abs(eq.tau - start[1]) <= reach
+        eq = replace(eq, converged=eq.converged & near)
     for retry_start in ("anchor", "level"):
         bad = ~eq.converged
         if not bad.any():
