@@ -51,6 +51,7 @@ from hydro.whatif import SensitivityRow
 from app import style
 from app.checks_runner import CheckResults, ChecksJob, Relay
 from app.document import HullDocument
+from app.length_box import LengthBox
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
 from hydro.wording import (
@@ -163,7 +164,7 @@ class ChecksPanel(QWidget):
         for button in (self.mode_side, self.mode_gunwale, self.mode_distance):
             self.mode_group.addButton(button)
         self.mode_group.buttonToggled.connect(self._on_inputs)
-        self.distance_box = self._spin(0.0, 1e5)
+        self.distance_box = self._length(0.0, 20.0, "shift distance")
         self.distance_box.editingFinished.connect(self._on_inputs)
         self.boarding_box = self._spin(1.0, 1000.0)
         self.boarding_box.editingFinished.connect(self._on_inputs)
@@ -213,7 +214,7 @@ class ChecksPanel(QWidget):
         self.trim_text.setWordWrap(True)
         self.trim_apply = QPushButton("Move it there")
         self.trim_apply.clicked.connect(self._apply_trim)
-        self.target_box = self._spin(-1000.0, 5000.0)
+        self.target_box = self._length(0.001, 5.0, "target GM")
         self.target_box.setToolTip(
             "Default 150 mm: IMO 2008 Intact Stability Code, GM0 at least 0.15 m - a ship "
             "criterion, used here as a plain benchmark"
@@ -261,7 +262,7 @@ class ChecksPanel(QWidget):
         self.wet_box.setPrefix("× ")
         self.wet_box.setKeyboardTracking(False)
         self.wet_box.editingFinished.connect(self._on_whatif_inputs)
-        self.bilge_box = self._spin(0.0, 1e4)
+        self.bilge_box = self._length(0.0, 1.0, "extra bilge water")
         self.bilge_box.editingFinished.connect(self._on_whatif_inputs)
         cases = QFormLayout()
         cases.addRow("Heavier crew", self.whatif_crew)
@@ -292,8 +293,8 @@ class ChecksPanel(QWidget):
         self.by_freeboard = QRadioButton("freeboards aft / fore")
         self.weighed.setChecked(True)
         self.weighed_box = self._spin(0.1, 1e5)
-        self.fb_aft_box = self._spin(-1e4, 1e5)
-        self.fb_fore_box = self._spin(-1e4, 1e5)
+        self.fb_aft_box = self._length(-1.0, 5.0, "measured freeboard aft")
+        self.fb_fore_box = self._length(-1.0, 5.0, "measured freeboard fore")
         self.correction = QCheckBox("wall-sided correction")
         self.correction.setChecked(True)
         self.correction.setToolTip("Subtract BM tan²(heel)/2 from each reading (exact for vertical sides)")
@@ -333,6 +334,12 @@ class ChecksPanel(QWidget):
         row.addLayout(side, 2)
         return tab
 
+    def _length(self, low: float, high: float, what: str) -> LengthBox:
+        """A length field (m) that reads what a builder types (3.6 m, 11 3/4, 2-04-3)."""
+        box = LengthBox(low, high, what, self.options.units)
+        box.refused.connect(self.document.notice.emit)
+        return box
+
     @staticmethod
     def _spin(low: float, high: float) -> QDoubleSpinBox:
         box = QDoubleSpinBox()
@@ -347,17 +354,11 @@ class ChecksPanel(QWidget):
         cs = self.document.committed.checks
         distance = cs.shift_distance_m if cs.shift_distance_m is not None else self._distance
         for box, metres in ((self.distance_box, distance), (self.target_box, cs.target_gm_m)):
-            box.blockSignals(True)
-            box.setDecimals(u.length_decimals)
-            box.setSuffix(f" {u.length}")
-            box.setValue(u.to_length(metres))
-            box.blockSignals(False)
+            box.set_units(u)
+            box.set_metres(metres)
         old = self._units
-        for box in (self.fb_aft_box, self.fb_fore_box):
-            metres = old.from_length(box.value())
-            box.setDecimals(u.length_decimals)
-            box.setSuffix(f" {u.length}")
-            box.setValue(u.to_length(metres))
+        for box in (self.fb_aft_box, self.fb_fore_box, self.bilge_box):
+            box.set_units(u)
         weighed = old.from_mass(self.weighed_box.value())
         for box, kg in ((self.boarding_box, cs.boarding_mass_kg), (self.weighed_box, weighed)):
             box.blockSignals(True)
@@ -432,14 +433,16 @@ class ChecksPanel(QWidget):
         button.setChecked(True)
         self.mode_group.blockSignals(False)
         u = self.options.units
-        self.bilge_box.setDecimals(u.length_decimals)
-        self.bilge_box.setSuffix(f" {u.length}")
+        for box, metres in (
+            (self.distance_box, self._distance),
+            (self.target_box, cs.target_gm_m),
+            (self.bilge_box, cs.whatif_bilge_m),
+        ):
+            box.set_units(u)
+            box.set_metres(metres)
         for box, value in (
-            (self.distance_box, u.to_length(self._distance)),
-            (self.target_box, u.to_length(cs.target_gm_m)),
             (self.boarding_box, u.to_mass(cs.boarding_mass_kg)),
             (self.wet_box, cs.whatif_wet_factor),
-            (self.bilge_box, u.to_length(cs.whatif_bilge_m)),
         ):
             box.blockSignals(True)
             box.setValue(value)
@@ -458,14 +461,14 @@ class ChecksPanel(QWidget):
             i for i in range(self.movers.count())
             if self.movers.item(i).checkState() == Qt.CheckState.Checked
         )
-        self._distance = u.from_length(self.distance_box.value())
+        self._distance = _kept(self.distance_box, self._distance)
         cases = replace(
             design.checks,
             shift_crew=None if len(ticked) == self.movers.count() else ticked,
             shift_distance_m=self._distance if self.mode_distance.isChecked() else None,
             shift_to_gunwale=self.mode_gunwale.isChecked(),
             boarding_mass_kg=u.from_mass(self.boarding_box.value()),
-            target_gm_m=u.from_length(self.target_box.value()),
+            target_gm_m=_kept(self.target_box, design.checks.target_gm_m),
         )
         subject = tuple(self.trim_subject.currentData() or ("crew", 0))
         if cases != design.checks:
@@ -499,7 +502,7 @@ class ChecksPanel(QWidget):
             design.checks,
             whatif_crew_kg=masses,
             whatif_wet_factor=self.wet_box.value(),
-            whatif_bilge_m=u.from_length(self.bilge_box.value()),
+            whatif_bilge_m=_kept(self.bilge_box, design.checks.whatif_bilge_m),
         )
         if cases != design.checks and not self.document.edit(
             replace(design, checks=cases), "Change the what-if cases"
@@ -698,7 +701,7 @@ class ChecksPanel(QWidget):
                     wall_sided_correction=self.correction.isChecked(),
                 )
             else:
-                fb = (u.from_length(self.fb_aft_box.value()), u.from_length(self.fb_fore_box.value()))
+                fb = (self.fb_aft_box.metres(), self.fb_fore_box.metres())
                 result = incline.inclining_test(
                     self.document.committed, readings, freeboards=fb,
                     wall_sided_correction=self.correction.isChecked(),
@@ -722,3 +725,8 @@ class ChecksPanel(QWidget):
             return
         design = incline.apply_inclining(self.document.committed, self.incline)
         self.document.edit(design, "Use the inclined boat's mass and KG")
+
+
+def _kept(box: LengthBox, metres: float) -> float:
+    """The box's length, or ``metres`` if the box still shows it (it holds micrometres)."""
+    return metres if abs(box.metres() - metres) < 1e-6 else box.metres()
