@@ -14,6 +14,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
+from typing import Any
 
 import numpy as np
 import shapely
@@ -266,7 +267,7 @@ def validate_sketch(sketch: HullSketch) -> None:
     _cached(_checked_shapes, sketch.sections)
 
 
-def _cached(function, *key):
+def _cached(function: Any, *key: Any) -> Any:
     """``function(*key)`` through its cache; straight through if the key is not hashable
     (points given as lists)."""
     try:
