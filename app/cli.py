@@ -46,6 +46,7 @@ from hydro import limits
 from hydro.io import read_incline_readings
 from hydro.outputs import check_output, write_via_temp
 from hydro.loads import water_density
+from hydro.builder_stations import builder_stations
 from hydro.resize import resize_design
 from hydro.runtime import keep_freed_memory
 from hydro.units import METRIC, LengthError, parse_length, system
@@ -133,12 +134,16 @@ def _parser() -> argparse.ArgumentParser:
     o = sub.add_parser("offsets", help="write the table of offsets of a design as CSV")
     o.add_argument("design")
     o.add_argument("-o", "--output", required=True, help="CSV file to write")
+    o.add_argument("--spacing", metavar="LENGTH", help="a station every LENGTH from the aft end (e.g. 300mm, 1ft)")
+    o.add_argument("--stations", type=int, metavar="N", help="N evenly spaced stations")
     pl = sub.add_parser("plate", help="render the print plate (PNG or PDF)")
     pl.add_argument("design")
     pl.add_argument("-o", "--output", required=True, help="PLATE.png or PLATE.pdf")
     pl.add_argument("--paper", default="A3", help="A4, A3, Letter or Tabloid (landscape)")
     pl.add_argument("--dpi", type=int, default=300, help="PNG resolution (72 to 600)")
     pl.add_argument("--units", default="metric", choices=["metric", "imperial"])
+    pl.add_argument("--spacing", metavar="LENGTH", help="offsets at a station every LENGTH (e.g. 1ft)")
+    pl.add_argument("--stations", type=int, metavar="N", help="offsets at N evenly spaced stations")
     ck = sub.add_parser("check", help="the builder's checks: crew shift, boarding, trim, beam, sensitivity, swamping")
     ck.add_argument("design")
     ck.add_argument("--crew", help="crew to shift, by number from 1 (default: all), e.g. 1,2")
@@ -471,8 +476,20 @@ def _incline(args: argparse.Namespace) -> None:
 
 def _offsets(args: argparse.Namespace) -> None:
     check_output(args.output, [args.design])
-    stations = load_design(args.design).stations()
+    design = load_design(args.design)
+    spacing, count = _station_choice(args)
+    stations = (
+        design.stations() if spacing is None and count is None
+        else builder_stations(design, spacing, count)
+    )
     write_offsets(stations, args.output, [args.design])
+
+
+def _station_choice(args: argparse.Namespace) -> tuple[float | None, int | None]:
+    """--spacing LENGTH or --stations N (the builder's stations), not both."""
+    if args.spacing is not None and args.stations is not None:
+        raise BadInput("give --spacing or --stations, not both")
+    return _length(args.spacing, "--spacing", 0.01, 40.0), args.stations
 
 
 def _plate(args: argparse.Namespace) -> None:
@@ -492,10 +509,25 @@ def _plate(args: argparse.Namespace) -> None:
     if args.paper.upper() not in {k.upper() for k in PAPER_SIZES}:
         raise BadInput(f"--paper must be one of {', '.join(PAPER_SIZES)}")
     paper = next(k for k in PAPER_SIZES if k.upper() == args.paper.upper())
+    spacing, count = _station_choice(args)
+    marks = None  # the plate works out the checks' marks itself
+    if spacing is not None or count is not None:
+        builder_stations(design, spacing, count)  # a bad choice: one line, nothing written
+        from dataclasses import replace
+
+        from app.plate import marks_from_assessment
+        from hydro.assess import assess
+
+        marks = replace(
+            marks_from_assessment(assess(design), system(args.units)),
+            station_spacing_m=spacing,
+            station_count=count,
+        )
     write_via_temp(
         args.output,
         lambda tmp: render_plate_file(
-            design, tmp, paper=paper, dpi=args.dpi, units=args.units, source=Path(args.design).name
+            design, tmp, paper=paper, dpi=args.dpi, units=args.units, source=Path(args.design).name,
+            extras=marks,
         ),
         [args.design],
     )

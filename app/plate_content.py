@@ -67,6 +67,8 @@ class PlateMarks:
     crew_shift_arm : heeling arm at zero heel (m); the arm curve arm * cos(heel) is drawn
     level_trim_seats : (crew name, seat x in metres) pairs that trim the boat level
     crew_shift_title, boarding_title, boarding_verdict : the cases as the panel words them
+    station_spacing_m, station_count : the builder's stations for the lines and the table
+        of offsets (every so many metres, or so many stations); None: the design's own
     """
 
     crew_shift_heel_deg: float | None = None
@@ -76,6 +78,8 @@ class PlateMarks:
     crew_shift_title: str = ""
     boarding_title: str = ""
     boarding_verdict: str = ""
+    station_spacing_m: float | None = None
+    station_count: int | None = None
 
     @classmethod
     def from_any(cls, extras: PlateMarks | Mapping[str, object] | None) -> PlateMarks:

@@ -56,6 +56,7 @@ from hydro.design import Design
 from hydro.safety import CAUTIONS
 from hydro.stability import Analysis, Status
 from hydro.wording import list_text, status_sentence
+from hydro.builder_stations import builder_stations
 from hydro.units import UnitSystem
 
 __all__ = ["PlateLayout", "Sheet"]
@@ -109,7 +110,12 @@ class Sheet:
         self.u = units
         self.source = source
         self.marks = marks
-        self.lines = hull_lines(design.stations())
+        chosen = marks.station_spacing_m is not None or marks.station_count is not None
+        self.lines = hull_lines(
+            builder_stations(design, marks.station_spacing_m, marks.station_count)
+            if chosen
+            else design.stations()
+        )
         self.layout = PlateLayout()
         self.lh_small = canvas.line_height(self.t.small)
         self.lh_body = canvas.line_height(self.t.body)

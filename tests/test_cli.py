@@ -180,3 +180,14 @@ def test_report_in_feet_and_inches_has_no_decimal_lengths(capsys):
     gm = next(line for line in out.splitlines() if line.startswith("GM "))
     assert gm.rstrip().endswith(" in") and "." not in gm
     assert " mm" not in out and " kg" not in out
+
+
+def test_offsets_at_the_builders_stations(tmp_path, capsys):
+    out = tmp_path / "offsets.csv"
+    assert main(["offsets", str(SAMPLES / "paper-loon-canoe.json"), "--spacing", "1 ft",
+                 "-o", str(out)]) == 0
+    xs = sorted({float(line.split(",")[0]) for line in out.read_text().splitlines()[2:]})
+    assert xs[:3] == pytest.approx([0.0, 0.3048, 0.6096], abs=1e-6) and xs[-1] == pytest.approx(3.4)
+    assert main(["offsets", str(SAMPLES / "paper-loon-canoe.json"), "--spacing", "1 ft",
+                 "--stations", "9", "-o", str(out)]) == 2
+    assert "not both" in capsys.readouterr().err
