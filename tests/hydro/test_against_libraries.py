@@ -38,7 +38,8 @@ PRISMS = {
     "flared chine": np.array([[0.0, 0.0], [0.35, 0.04], [0.45, 0.18], [0.62, 0.45]]),
     "tumblehome": np.array([[0.0, 0.0], [0.5, 0.1], [0.55, 0.3], [0.45, 0.55]]),
     "round bilge": np.column_stack(
-        [0.4 * np.sin(np.linspace(0, np.pi / 2, 25)), 0.4 - 0.4 * np.cos(np.linspace(0, np.pi / 2, 25))]
+        [0.4 * np.sin(np.linspace(0, np.pi / 2, 25)),
+         0.4 - 0.4 * np.cos(np.linspace(0, np.pi / 2, 25))]
     ),
 }
 

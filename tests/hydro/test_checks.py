@@ -93,10 +93,12 @@ class TestCrewShift:
         assert exact < math.degrees(math.atan(2 * T / 1.2))  # still wall-sided
         assert check.static_heel_deg == pytest.approx(exact, abs=1e-6)
         # B&D "List": tan(list) = w d / (Delta GM) for small angles
-        assert check.small_angle_heel_deg == pytest.approx(math.degrees(math.atan(arm / gm)), rel=1e-9)
+        small = math.degrees(math.atan(arm / gm))
+        assert check.small_angle_heel_deg == pytest.approx(small, rel=1e-9)
         assert check.small_angle_heel_deg > check.static_heel_deg  # BM tan^2 term rights
         assert check.verdict == "holds"
-        np.testing.assert_allclose(check.heeling_arm, arm * np.cos(np.radians(check.heel_deg)), rtol=1e-12)
+        arms = arm * np.cos(np.radians(check.heel_deg))
+        np.testing.assert_allclose(check.heeling_arm, arms, rtol=1e-12)
         # the low gunwale's height above the water at that heel: (f - (B/2) tan) cos
         # (wall-sided: the waterline pivots on the centreline at height T)
         t = math.radians(exact)
@@ -146,7 +148,9 @@ class TestCrewShift:
         # the rise adds w h sin(phi)/Delta to the arm
         assert on_rail.heeling_arm[20] > on_rail.arm0 * math.cos(math.radians(on_rail.heel_deg[20]))
 
-    @pytest.mark.source(f"{ISO_12217_3}, gunwale-load test (idea); {BRITANNICA}; {SHAPELY}; {SCIPY}")
+    @pytest.mark.source(
+        f"{ISO_12217_3}, gunwale-load test (idea); {BRITANNICA}; {SHAPELY}; {SCIPY}"
+    )
     def test_boarding_adds_a_person_at_the_gunwale(self):
         """60 kg added at the gunwale (y = B/2, z = D): the arm is m (B/2) cos/(Delta + m)
         against the GZ of the boat with that mass on the centreline at deck height.
@@ -189,7 +193,9 @@ class TestInclining:
             out.append(InclineReading(w, d, heel_deg=heel))
         return out
 
-    @pytest.mark.source(f"{BARRASS}, 'The inclining experiment'; {TUPPER}, wall-sided formula p. 49")
+    @pytest.mark.source(
+        f"{BARRASS}, 'The inclining experiment'; {TUPPER}, wall-sided formula p. 49"
+    )
     def test_recovers_gm_exactly_with_the_wall_sided_correction(self):
         res = inclining_test(self.design, self.readings(), displacement=self.delta)
         assert res.gm == pytest.approx(self.gm, rel=1e-9)
@@ -210,7 +216,9 @@ class TestInclining:
         assert plain.gm > self.gm
         np.testing.assert_allclose(plain.per_reading_gm, moments / (self.delta * tans), rtol=1e-12)
 
-    @pytest.mark.source(f"{BARRASS}, 'The inclining experiment'; pendulum tan = deflection / length")
+    @pytest.mark.source(
+        f"{BARRASS}, 'The inclining experiment'; pendulum tan = deflection / length"
+    )
     def test_pendulum_readings_and_freeboards(self):
         pend = [InclineReading(r.mass, r.distance, pendulum_length=1.5,
                                deflection=1.5 * math.tan(math.radians(r.heel_deg)))
@@ -243,7 +251,9 @@ class TestInclining:
         with pytest.raises(LoadError, match=re.escape(message)):
             inclining_test(self.design, readings, **kwargs)
 
-    @pytest.mark.source(f"{IMO_IS}, Part B ch. 8 and Annex 1: several moves to both sides, small heels")
+    @pytest.mark.source(
+        f"{IMO_IS}, Part B ch. 8 and Annex 1: several moves to both sides, small heels"
+    )
     def test_warnings(self):
         few = self.readings(moves=((5, 0.4), (5, 0.5)))
         res = inclining_test(self.design, few, displacement=self.delta)
@@ -313,7 +323,8 @@ def test_swamping_and_reserve():
     assert res.reserve_volume == pytest.approx(3.0 * 1.2 * (0.5 - draft), rel=1e-9)
     assert res.reserve_fraction == pytest.approx((0.5 - draft) / 0.5, rel=1e-9)
     assert res.floats_swamped is False and "life jackets" in res.message
-    foam = box_design(crew=(CrewMember("a", 1.5, 70.0),), materials=(Material("closed-cell foam blocks", 4.0, 1),))
+    foam_blocks = Material("closed-cell foam blocks", 4.0, 1)
+    foam = box_design(crew=(CrewMember("a", 1.5, 70.0),), materials=(foam_blocks,))
     assert swamping(foam).floats_swamped is True
     closed = box_design(crew=(CrewMember("a", 1.5, 70.0),), materials=(board,), open_boat=False)
     assert swamping(closed).floats_swamped is None
@@ -338,7 +349,9 @@ def test_shifted_freeboard_below_75_mm_is_flagged():
     assert check.verdict == "holds" and "less than the 75 mm suggested" in check.message
 
 
-@pytest.mark.source(f"{IMO_IS}, Part A general criteria: GM0 at least 0.15 m (section number from memory)")
+@pytest.mark.source(
+    f"{IMO_IS}, Part A general criteria: GM0 at least 0.15 m (section number from memory)"
+)
 def test_default_target_gm():
     from hydro.design import TARGET_GM_M
 

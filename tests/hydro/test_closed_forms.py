@@ -162,7 +162,8 @@ def test_box_deck_edge_first():
     for i, phi in enumerate(r.curve.heel_deg):
         if 0 < phi < edge:
             t = math.radians(phi)
-            assert r.curve.gz[i] == pytest.approx(math.sin(t) * (gm + 0.5 * bm * math.tan(t) ** 2), rel=1e-9)
+            wall_sided = math.sin(t) * (gm + 0.5 * bm * math.tan(t) ** 2)
+            assert r.curve.gz[i] == pytest.approx(wall_sided, rel=1e-9)
             checked += 1
     assert checked >= 20
 
@@ -200,7 +201,8 @@ def test_cylinder_metacentre_at_centre():
     res = run(st, mass, L / 2, kg, np.array([0.0, 13.7, 41.3, 77.9, 133.1]))
     assert res.hydrostatics.km == pytest.approx(r_, rel=2e-5)
     for i, phi in enumerate(res.curve.heel_deg):
-        assert res.curve.gz[i] == pytest.approx((r_ - kg) * math.sin(math.radians(phi)), abs=2e-6), phi
+        expected = (r_ - kg) * math.sin(math.radians(phi))
+        assert res.curve.gz[i] == pytest.approx(expected, abs=2e-6), phi
 
 
 @pytest.mark.source(f"{TUPPER}: BM = I_T/V with I_T by the parallel-axis theorem")
@@ -320,7 +322,9 @@ class TestBilgeWaterAcrossTheFloor:
         assert a.weights.mass == pytest.approx(delta, rel=1e-12)
         assert a.weights.fsc == pytest.approx(RHO * self.L * self.B**3 / (12 * delta), rel=1e-12)
 
-    @pytest.mark.source(f"{BARRASS}, free-surface chapter; {IMO_IS}, Part A: GM corrected for free surface")
+    @pytest.mark.source(
+        f"{BARRASS}, free-surface chapter; {IMO_IS}, Part A: GM corrected for free surface"
+    )
     def test_fluid_gm(self, closed):
         """GM = KB + BM - KG - FSC = T/2 - KG here, every term from the box's closed forms."""
         delta, T, kg = closed
@@ -370,7 +374,8 @@ def test_separate_pools_each_about_their_own_centre():
     for phi, gz in zip(a.curve.heel_deg[1:], a.curve.gz[1:]):  # bottom emerges at 9.5 deg
         t = math.radians(phi)
         solid = math.sin(t) * (gm_solid + 0.5 * bm * math.tan(t) ** 2)
-        assert abs(gz - (solid - fsc * math.sin(t))) <= fsc * math.sin(t) * 0.5 * math.tan(t) ** 2 + 1e-12
+        left_out = fsc * math.sin(t) * 0.5 * math.tan(t) ** 2
+        assert abs(gz - (solid - fsc * math.sin(t))) <= left_out + 1e-12
 
 
 @pytest.mark.source(f"{BARRASS}, App. summary: same mass, volume x rho1/rho2")

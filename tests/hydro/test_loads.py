@@ -130,7 +130,9 @@ def test_standard_gravity():
     assert G_STANDARD == 9.80665
 
 
-@pytest.mark.source("International yard and pound agreement (1959): 1 in = 25.4 mm, 1 lb = 0.45359237 kg exactly")
+@pytest.mark.source(
+    "International yard and pound agreement (1959): 1 in = 25.4 mm, 1 lb = 0.45359237 kg"
+)
 def test_imperial_unit_factors():
     from hydro.units import KG_PER_LB, M_PER_IN
 
