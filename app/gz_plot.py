@@ -10,7 +10,7 @@ import math
 
 import numpy as np
 import pyqtgraph as pg
-from PySide6.QtCore import Qt
+from PySide6.QtCore import Qt, Signal
 
 from hydro import StabilityCurve
 
@@ -63,8 +63,13 @@ class GzPlot(pg.PlotWidget):
     The wall-sided estimate is drawn up to where it leaves the plot.
     """
 
+    #: heelPicked(float): the user clicked the plot at this heel (degrees)
+    heelPicked = Signal(float)
+
     def __init__(self) -> None:
         super().__init__(background=style.PAPER)
+        self.scene().sigMouseClicked.connect(self._on_clicked)
+        self.setToolTip("Click the curve to see the boat heeled at that angle in the section view")
         self.setMenuEnabled(False)
         self.hideButtons()
         self.setMouseEnabled(x=False, y=False)
@@ -99,6 +104,13 @@ class GzPlot(pg.PlotWidget):
         self._units: UnitSystem | None = None
         self._label_side: tuple[int, int] | None = None
         self._span: tuple[float, float, float] | None = None  # heel range end, GZ bottom and top
+
+    def _on_clicked(self, ev) -> None:
+        if ev.button() != Qt.MouseButton.LeftButton:
+            return
+        box = self.getViewBox()
+        if box.sceneBoundingRect().contains(ev.scenePos()):
+            self.heelPicked.emit(float(box.mapSceneToView(ev.scenePos()).x()))
 
     def set_units(self, units: UnitSystem) -> None:
         self._units = units

@@ -154,6 +154,7 @@ class MainWindow(QMainWindow):
         self.setCorner(Qt.Corner.BottomRightCorner, Qt.DockWidgetArea.RightDockWidgetArea)
         self.results = ResultsPanel(document, self.options)
         self.results.helpRequested.connect(self.show_safety_notes)
+        self.results.gz_plot.heelPicked.connect(self.section_view.show_heel)
         self.results_dock = self._dock(self.results, "Stability", Qt.DockWidgetArea.RightDockWidgetArea)
         self.loads = LoadEditor(document, self.options)
         self.loads_dock = self._dock(self.loads, "Loads", Qt.DockWidgetArea.BottomDockWidgetArea)

@@ -7,12 +7,14 @@ station, and G, B and M, are drawn from the analysis, so GM can be seen as a dis
 
 from __future__ import annotations
 
+import math
 from dataclasses import replace
 
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QRectF, QSignalBlocker
-from PySide6.QtWidgets import QCheckBox, QComboBox, QHBoxLayout, QToolButton
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QCheckBox, QComboBox, QHBoxLayout, QLabel, QToolButton
 
 from hydro import Analysis, HullSketch, Stations
 from hydro.curves import sample_polyline
@@ -93,9 +95,33 @@ class SectionView(SketchView):
         for label in self.labels.values():
             label.setZValue(9)
             self.plot.addItem(label, ignoreBounds=True)
+        # the boat heeled at an angle picked on the GZ curve: tilted waterline, righting arm
+        self.heel_deg: float | None = None
+        self.arm = pg.PlotCurveItem(pen=pg.mkPen(style.CENTRE_OF_GRAVITY, width=3))
+        self.buoyancy_line = pg.PlotCurveItem(
+            pen=pg.mkPen(style.WATER_LINE, width=1.5, style=Qt.PenStyle.DashLine)
+        )
+        for item in (self.arm, self.buoyancy_line):
+            item.setZValue(7)
+            self.plot.addItem(item, ignoreBounds=True)
+        self.heel_text = QLabel()
+        self.upright = QToolButton()
+        self.upright.setText("Upright")
+        self.upright.setToolTip("Back to the boat floating upright")
+        self.upright.clicked.connect(lambda: self.show_heel(None))
+        self.upright.hide()
+        controls.insertWidget(controls.count() - 1, self.heel_text)
+        controls.addWidget(self.upright)
         self.handles = ControlPoints()
         self.add_handles("section", self.handles)
         self.apply_options()
+
+    def show_heel(self, heel_deg: float | None) -> None:
+        """Draw the boat heeled at ``heel_deg`` (nearest computed angle), or upright (None)."""
+        self.heel_deg = heel_deg
+        self.upright.setVisible(heel_deg is not None)
+        if self.document.analysis is not None:
+            self.show_analysis(self.document.analysis)
 
     # ------------------------------------------------------------ which shape
 
@@ -255,6 +281,8 @@ class SectionView(SketchView):
         deep = rect.top() - 0.4 * rect.height()
         self.water.set_polygon(np.array([ys[0], ys[1], ys[1], ys[0]]), np.array([wl, wl, deep, deep]))
         w = analysis.weights
+        if self._show_heeled(analysis, x, reach, rect.height()):
+            return
         keel_z = w.vcg - w.kg
         points = {"G": (w.tcg, w.vcg), "B": (hs.tcb, keel_z + hs.kb), "M": (0.0, keel_z + hs.km)}
         xs, zs = zip(*(points[name] for name in ("G", "B", "M")))
@@ -262,6 +290,47 @@ class SectionView(SketchView):
         for name, label in self.labels.items():
             label.setText(name)
             label.setPos(*points[name])
+
+    def _show_heeled(self, analysis: Analysis, x: float, reach: float, depth: float) -> bool:
+        """The heeled waterline, G and the righting arm; False (nothing drawn) if upright."""
+        curve = analysis.curve
+        self.arm.setData([], [])
+        self.buoyancy_line.setData([], [])
+        if self.heel_deg is None or curve is None or curve.waterlines is None:
+            self.heel_text.setText("")
+            return False
+        i = int(np.argmin(np.abs(curve.heel_deg - self.heel_deg)))
+        phi = math.radians(float(curve.heel_deg[i]))
+        level = float(curve.waterlines[0][i] + curve.waterlines[1][i] * x)
+        across = np.array([math.cos(phi), math.sin(phi)])  # level, seen in the boat
+        up = np.array([-math.sin(phi), math.cos(phi)])
+        p0 = level * up  # on the water plane: z cos(phi) - y sin(phi) = level
+        ends = np.array([p0 - reach * across, p0 + reach * across])
+        below = ends - 2 * depth * up
+        self.waterline.setData(ends[:, 0], ends[:, 1])
+        self.water.set_polygon(
+            np.array([ends[0, 0], ends[1, 0], below[1, 0], below[0, 0]]),
+            np.array([ends[0, 1], ends[1, 1], below[1, 1], below[0, 1]]),
+        )
+        w = analysis.weights
+        g = np.array([w.tcg, w.vcg])
+        gz = float(curve.gz[i])
+        z = g + gz * across if math.isfinite(gz) else g
+        self.arm.setData([g[0], z[0]], [g[1], z[1]])
+        line = np.array([z - reach * up, z + reach * up])
+        self.buoyancy_line.setData(line[:, 0], line[:, 1])
+        self.centres.set_markers([g[0]], [g[1]], self._centre_styles[:1])
+        self.labels["G"].setText("G")
+        self.labels["G"].setPos(*g)
+        self.labels["B"].setText("B acts along this line")
+        self.labels["B"].setPos(*(z - 0.3 * reach * up))
+        self.labels["M"].setText("")
+        u = self.options.units
+        deg = float(curve.heel_deg[i])
+        side = "starboard" if deg >= 0 else "port"
+        arm = "righting arm" if gz >= 0 else "capsizing arm"
+        self.heel_text.setText(f"heeled {abs(deg):.0f}° to {side}: {arm} {u.length_text(abs(gz))}")
+        return True
 
     def extent(self) -> QRectF:
         hull = self.document.design.hull

@@ -106,3 +106,35 @@ def test_trim_is_said_in_words(window):
     assert words in ("° by the bow", "° by the stern", "° level")
     assert (hs.trim_deg > 0) == (words == "° by the bow") or words == "° level"
     assert "-" not in window.results.values["trim"].text()
+
+
+def test_a_click_on_the_gz_curve_heels_the_section(window, qtbot):
+    import math
+
+    import numpy as np
+
+    plot = window.results.gz_plot
+    window.section_view.show_heel(None)
+    with qtbot.waitSignal(plot.heelPicked) as picked:
+        point = plot.getViewBox().mapViewToScene(pg_point(20.0, 0.0))
+        qtbot.mouseClick(plot.viewport(), Qt.MouseButton.LeftButton, pos=plot.mapFromScene(point))
+    assert picked.args[0] == pytest.approx(20.0, abs=1.0)
+    view = window.section_view
+    ys, zs = view.waterline.getData()
+    tilt = math.degrees(math.atan2(zs[1] - zs[0], ys[1] - ys[0]))
+    curve = window.document.analysis.curve
+    shown = curve.heel_deg[np.argmin(np.abs(curve.heel_deg - picked.args[0]))]
+    assert tilt == pytest.approx(shown, abs=1e-6)  # the water plane turned by the heel
+    (gx, gy), (zx, zy) = zip(*view.arm.getData())
+    i = int(np.argmin(np.abs(curve.heel_deg - shown)))
+    assert math.hypot(zx - gx, zy - gy) == pytest.approx(abs(curve.gz[i]), abs=1e-9)
+    assert "heeled" in view.heel_text.text() and view.upright.isVisible()
+    view.upright.click()
+    _ys, zs = view.waterline.getData()
+    assert zs[0] == zs[1] and view.heel_text.text() == ""
+
+
+def pg_point(x, y):
+    from PySide6.QtCore import QPointF
+
+    return QPointF(x, y)
