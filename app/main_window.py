@@ -300,6 +300,11 @@ class MainWindow(QMainWindow):
         edit_menu.addActions([self.remove_point_action, self.snap_action])
         self.view_menu = bar.addMenu("&View")
         self.view_menu.addAction(self.fit_action)
+        self.shift_heel_action = self._action(
+            "Section heeled by the crew &shift", self.show_crew_shift_heel, "Ctrl+H",
+            tip="Show the section at the heel the crew-shift check finds (righting arm = heeling arm)",
+        )
+        self.view_menu.addAction(self.shift_heel_action)
         units_menu = self.view_menu.addMenu("&Units")
         units_menu.addActions(list(self.unit_actions.values()))
         self.view_menu.addSeparator()
@@ -322,6 +327,17 @@ class MainWindow(QMainWindow):
             bar.addAction(action)
         bar.addSeparator()
         bar.addAction(self.plate_action)
+
+    def show_crew_shift_heel(self) -> None:
+        """The section view at the crew-shift check's static heel (where GZ meets the arm)."""
+        results = self.checks.results
+        shift = results.shift if results is not None else None
+        if shift is None or shift.static_heel_deg is None:
+            self.statusBar().showMessage(
+                "No crew-shift heel to show: the check has not run, or the boat capsizes", 8000
+            )
+            return
+        self.section_view.show_heel(shift.static_heel_deg)
 
     def _type_coordinates(self) -> None:
         box = self.point_entry.first

@@ -138,3 +138,20 @@ def pg_point(x, y):
     from PySide6.QtCore import QPointF
 
     return QPointF(x, y)
+
+
+@pytest.mark.parametrize("name", ["drift-lab-raft", "paper-loon-canoe"])  # holds, capsizes
+def test_the_crew_shift_heel_is_shown_in_the_section(qtbot, name):
+    w = MainWindow(HullDocument(sample(name)), open_settings())
+    w.ask = lambda *a: QMessageBox.StandardButton.Discard
+    qtbot.addWidget(w)
+    with qtbot.waitSignal(w.checks.checksReady, timeout=30000):
+        w.document.recompute_now()
+    shift = w.checks.results.shift
+    w.show_crew_shift_heel()
+    if shift.static_heel_deg is None:  # capsizes: nothing to show, and it says so
+        assert "capsizes" in w.statusBar().currentMessage()
+        assert w.section_view.heel_deg is None
+    else:
+        assert w.section_view.heel_deg == shift.static_heel_deg
+        assert "heeled" in w.section_view.heel_text.text()
