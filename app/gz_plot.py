@@ -105,6 +105,19 @@ class GzPlot(pg.PlotWidget):
         self._label_side: tuple[int, int] | None = None
         self._span: tuple[float, float, float] | None = None  # heel range end, GZ bottom and top
 
+    def show_pinned(self, curve: StabilityCurve | None) -> None:
+        """A pinned version's GZ curve, faint behind the current one (None: none)."""
+        if not hasattr(self, "pinned_curve"):
+            self.pinned_curve = pg.PlotCurveItem(
+                pen=pg.mkPen(style.INK_FAINT, width=2, style=Qt.PenStyle.DashLine)
+            )
+            self.pinned_curve.setZValue(-5)
+            self.addItem(self.pinned_curve)
+        if curve is None:
+            self.pinned_curve.setData([], [])
+        else:
+            self.pinned_curve.setData(curve.heel_deg, np.nan_to_num(curve.gz, nan=np.nan))
+
     def _on_clicked(self, ev) -> None:
         if ev.button() != Qt.MouseButton.LeftButton:
             return

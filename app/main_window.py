@@ -50,6 +50,7 @@ from app import style
 from app.document import HullDocument, starter_design
 from app.build_view import BuildView
 from app.checks_panel import ChecksPanel
+from app.compare import difference_text
 from app.design_header import DesignHeader
 from app.dimensions_panel import DimensionsPanel
 from app.length_box import LengthBox
@@ -183,6 +184,9 @@ class MainWindow(QMainWindow):
         document.fileChanged.connect(self._update_title)
         document.designChanged.connect(self._update_title)
         self.options.changed.connect(self._on_options_changed)
+        self.pinned: tuple | None = None
+        document.analysisReady.connect(self._show_comparison)
+        self.options.changed.connect(self._show_comparison)
         self._update_title()
 
         self.recovery = Autosave(document, recovery_folder(settings), self)
@@ -305,6 +309,12 @@ class MainWindow(QMainWindow):
             tip="Show the section at the heel the crew-shift check finds (righting arm = heeling arm)",
         )
         self.view_menu.addAction(self.shift_heel_action)
+        self.pin_action = self._action(
+            "&Pin this version", self.pin_version, "Ctrl+P",
+            tip="Keep this version faintly behind the drawings and the GZ curve, to compare",
+        )
+        self.unpin_action = self._action("&Unpin", lambda: self.pin_version(False))
+        self.view_menu.addActions([self.pin_action, self.unpin_action])
         units_menu = self.view_menu.addMenu("&Units")
         units_menu.addActions(list(self.unit_actions.values()))
         self.view_menu.addSeparator()
@@ -327,6 +337,25 @@ class MainWindow(QMainWindow):
             bar.addAction(action)
         bar.addSeparator()
         bar.addAction(self.plate_action)
+
+    def pin_version(self, pin: bool = True) -> None:
+        """Pin the design as it stands (or unpin): faint lines and curve, a difference table."""
+        analysis = self.document.analysis
+        self.pinned = (self.document.committed, analysis) if pin and analysis is not None else None
+        design = None if self.pinned is None else self.pinned[0]
+        for view in self.views:
+            view.set_pinned(design)
+        self.results.gz_plot.show_pinned(None if self.pinned is None else self.pinned[1].curve)
+        self._show_comparison()
+
+    def _show_comparison(self, _analysis: object = None) -> None:
+        label = self.results.compare
+        analysis = self.document.analysis
+        if self.pinned is None or analysis is None:
+            label.hide()
+            return
+        label.setText(difference_text(self.pinned, (self.document.design, analysis), self.options.units))
+        label.show()
 
     def show_crew_shift_heel(self) -> None:
         """The section view at the crew-shift check's static heel (where GZ meets the arm)."""

@@ -99,6 +99,12 @@ class PlanView(SketchView):
         self.crew.set_markers([], [], [])
         self.handles.set_points(np.array([]), np.array([]), None)
 
+    def pinned_lines(self, hull: HullSketch) -> tuple[np.ndarray, np.ndarray]:
+        x0, x1 = hull.x_range
+        xs = np.linspace(x0, x1, _SAMPLES)
+        b = np.maximum(hull.plan(xs), 0.0)
+        return np.concatenate([xs, xs[::-1], xs[:1]]), np.concatenate([b, -b[::-1], b[:1]])
+
     def extent(self) -> QRectF:
         hull = self.document.design.hull
         if isinstance(hull, HullSketch):

@@ -6,7 +6,7 @@ import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QRectF, Qt
 
-from hydro import Analysis, Stations
+from hydro import Analysis, HullSketch, Stations
 
 from app import editing, style
 from app.control_points import ControlPoints
@@ -70,6 +70,13 @@ class ProfileView(SketchView):
             return (id(hull),)
         marks = tuple(s.x for s in hull.sections)
         return (hull.keel, hull.sheer, hull.station_count, marks, self.document.selection)
+
+    def pinned_lines(self, hull: HullSketch) -> tuple[np.ndarray, np.ndarray]:
+        x0, x1 = hull.x_range
+        xs = np.linspace(x0, x1, 161)
+        gap = np.array([np.nan])
+        return (np.concatenate([xs, gap, xs]),
+                np.concatenate([hull.keel(xs), gap, hull.sheer(xs)]))
 
     def redraw(self) -> None:
         hull = self.document.design.hull

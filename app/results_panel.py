@@ -192,6 +192,10 @@ class ResultsPanel(QWidget):
         layout.addWidget(self.state)
         layout.addLayout(grid)
         layout.addWidget(self.quality)
+        self.compare = QLabel()  # pinned version against the current one
+        self.compare.setFont(figures)
+        self.compare.hide()
+        layout.addWidget(self.compare)
         layout.addWidget(self.gz_plot, 1)
         layout.addWidget(legend)
         layout.addWidget(caution)

@@ -21,6 +21,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
+import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QEvent, QObject, QPointF, QRectF, Qt, Signal
 from PySide6.QtWidgets import QHBoxLayout, QLabel, QMenu, QToolButton, QVBoxLayout, QWidget
@@ -164,6 +165,28 @@ class SketchView(QWidget):
     def sketch(self) -> HullSketch | None:
         hull = self.document.design.hull
         return hull if isinstance(hull, HullSketch) else None
+
+    # ------------------------------------------------------------ pinned version
+
+    def set_pinned(self, design) -> None:
+        """Draw ``design``'s lines faintly behind the current ones (None: no pinned version)."""
+        if not hasattr(self, "pinned_item"):
+            self.pinned_item = pg.PlotCurveItem(
+                pen=pg.mkPen(style.INK_FAINT, width=1.5, style=Qt.PenStyle.DashLine),
+                connect="finite",
+            )
+            self.pinned_item.setZValue(-5)
+            self.plot.addItem(self.pinned_item, ignoreBounds=True)
+        hull = None if design is None else design.hull
+        if not isinstance(hull, HullSketch):
+            self.pinned_item.setData([], [])
+            return
+        x, y = self.pinned_lines(hull)
+        self.pinned_item.setData(x, y)
+
+    def pinned_lines(self, hull: HullSketch) -> tuple[np.ndarray, np.ndarray]:
+        """Polylines of a pinned hull in this view, separated by NaN."""
+        return np.array([]), np.array([])
 
     # ------------------------------------------------------------ selection
 

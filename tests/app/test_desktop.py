@@ -155,3 +155,22 @@ def test_the_crew_shift_heel_is_shown_in_the_section(qtbot, name):
     else:
         assert w.section_view.heel_deg == shift.static_heel_deg
         assert "heeled" in w.section_view.heel_text.text()
+
+
+def test_pin_a_version_and_compare(window, qtbot):
+    doc = window.document
+    window.pin_version()
+    box = window.dimensions.fields["beam"]
+    box.setValue(1.2)
+    doc.recompute_now()
+    text = window.results.compare.text()
+    assert window.results.compare.isVisible() or not window.isVisible()
+    beam = next(line for line in text.splitlines() if line.startswith("Beam"))
+    assert beam.split()[1:] == ["960", "mm", "1200", "mm"]
+    x, _y = window.results.gz_plot.pinned_curve.getData()
+    assert len(x) == len(doc.analysis.curve.heel_deg)
+    px, _py = window.plan_view.pinned_item.getData()
+    assert len(px) > 0
+    window.pin_version(False)
+    assert len(window.plan_view.pinned_item.getData()[0]) == 0
+    assert not window.results.compare.isVisible()
