@@ -17,6 +17,7 @@ from importlib import resources
 from pathlib import Path
 from typing import Callable
 
+from shiboken6 import isValid
 from PySide6.QtCore import QEvent, QObject, QSettings, Qt
 from PySide6.QtGui import (
     QAction,
@@ -376,6 +377,8 @@ class MainWindow(QMainWindow):
     def _show_undo_text(self, _text: str = "") -> None:
         """What Undo and Redo would do, in their tooltips (their labels stay put)."""
         stack = self.document.undo_stack
+        if not isValid(stack) or not isValid(self.undo_action):
+            return  # the window is closing
         for action, verb, can, text in (
             (self.undo_action, "Undo", stack.canUndo(), stack.undoText()),
             (self.redo_action, "Redo", stack.canRedo(), stack.redoText()),

@@ -175,7 +175,7 @@ class SketchView(QWidget):
                 pen=pg.mkPen(style.INK_FAINT, width=1.5, style=Qt.PenStyle.DashLine),
                 connect="finite",
             )
-            self.pinned_item.setZValue(-5)
+            self.pinned_item.setZValue(3)  # over the hull's white fill, under the handles
             self.plot.addItem(self.pinned_item, ignoreBounds=True)
         hull = None if design is None else design.hull
         if not isinstance(hull, HullSketch):
