@@ -91,13 +91,16 @@ class ControlPoints(Markers):
 
     def mouseClickEvent(self, ev) -> None:
         index = self.index_at(ev.pos())
-        if index is None or ev.button() not in (Qt.MouseButton.LeftButton, Qt.MouseButton.RightButton):
+        buttons = (Qt.MouseButton.LeftButton, Qt.MouseButton.RightButton)
+        if index is None or ev.button() not in buttons:
             ev.ignore()
             return
         ev.accept()
         if ev.button() == Qt.MouseButton.RightButton:
             self.menuRequested.emit(index, ev.screenPos().toPoint())
-        elif ev.modifiers() & (Qt.KeyboardModifier.ShiftModifier | Qt.KeyboardModifier.ControlModifier):
+        elif ev.modifiers() & (
+            Qt.KeyboardModifier.ShiftModifier | Qt.KeyboardModifier.ControlModifier
+        ):
             self.pointToggled.emit(index)
         else:
             self.pointSelected.emit(index)

@@ -31,7 +31,9 @@ class DesignHeader(QWidget):
         self.name_edit.setMinimumWidth(260)
         self.name_edit.editingFinished.connect(self._on_name_typed)
         self.notes_edit = QPlainTextEdit()
-        self.notes_edit.setPlaceholderText("notes: materials bought, test dates, who paddles where…")
+        self.notes_edit.setPlaceholderText(
+            "notes: materials bought, test dates, who paddles where…"
+        )
         self.notes_edit.setToolTip("Free notes saved with the design")
         self.notes_edit.setTabChangesFocus(True)
         line = self.notes_edit.fontMetrics().lineSpacing()

@@ -135,7 +135,9 @@ class DimensionsPanel(QWidget):
         elif dims.hull_spacing is not None:
             self.note.setText("Twin hulls: spacing and width move and size both hulls.")
         elif dims.bottom_width is not None:
-            self.note.setText("Hard chine: bottom width and flare move the chine; the gunwale stays.")
+            self.note.setText(
+                "Hard chine: bottom width and flare move the chine; the gunwale stays."
+            )
         else:
             self.note.setText("Round bilge: length, beam and depth keep the shape.")
 

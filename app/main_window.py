@@ -12,6 +12,7 @@ Questions that need an answer (save before closing? recover unsaved work?) go th
 from __future__ import annotations
 
 import importlib
+from dataclasses import replace
 import re
 from importlib import resources
 from pathlib import Path
@@ -45,6 +46,7 @@ from PySide6.QtWidgets import (
 )
 
 from hydro import HullwrightError, load_design
+from hydro.assess import assess
 from hydro.outputs import write_via_temp
 
 from app import style
@@ -549,22 +551,35 @@ class MainWindow(QMainWindow):
         folder = self.document.path.parent if self.document.path else Path.home()
         suggested = folder / f"{_file_stem(self.document.committed.name)}-plate.png"
         dialog = PlateDialog(self, list(plate.PAPER_SIZES), suggested)
-        dialog.accepted.connect(lambda: self._write_plate(plate, *dialog.choice()))
+        dialog.accepted.connect(
+            lambda: self._write_plate(plate, *dialog.choice(), stations=dialog.stations())
+        )
         dialog.open()
 
-    def _write_plate(self, plate, path: Path, paper: str, dpi: int) -> None:
+    def _write_plate(
+        self, plate, path: Path, paper: str, dpi: int,
+        stations: tuple[float | None, int | None] = (None, None),
+    ) -> None:
         if path.suffix.lower() not in (".png", ".pdf"):
             path = path.with_suffix(".png")
         source = self.document.path.name if self.document.path else "not saved"
         design, units = self.document.committed, self.options.units.name
         shown = self.checks.results  # the assessment on screen, when it is this design's
         assessment = shown.assessment if shown is not None and shown.design == design else None
+        marks = None  # the plate works out the checks' marks itself
         try:
+            if stations != (None, None):  # the builder's stations for the offsets
+                assessment = assessment or assess(design)
+                marks = replace(
+                    plate.marks_from_assessment(assessment, self.options.units),
+                    station_spacing_m=stations[0],
+                    station_count=stations[1],
+                )
             write_via_temp(
                 path,
                 lambda tmp: plate.render_plate_file(
                     design, tmp, paper=paper, dpi=dpi, units=units, source=source,
-                    assessment=assessment,
+                    assessment=assessment, extras=marks,
                 ),
                 [self.document.path] if self.document.path else [],
             )

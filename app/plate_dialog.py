@@ -41,6 +41,19 @@ class PlateDialog(QDialog):
         self.dpi_box.setValue(300)
         self.dpi_box.setSuffix(" dpi")
         self.dpi_box.setToolTip("Resolution of a PNG plate (a PDF is drawn as lines)")
+        self.stations_box = QComboBox()
+        for text, choice in (
+            ("the design's own (every few)", (None, None)),
+            ("a station every 300 mm", (0.3, None)),
+            ("a station every 1 ft", (0.3048, None)),
+            ("11 evenly spaced stations", (None, 11)),
+            ("21 evenly spaced stations", (None, 21)),
+        ):
+            self.stations_box.addItem(text, choice)
+        self.stations_box.setToolTip(
+            "Where the table of offsets and the drawn stations fall; the figures are always "
+            "worked out on the design's own fine stations"
+        )
         buttons = QDialogButtonBox(
             QDialogButtonBox.StandardButton.Save | QDialogButtonBox.StandardButton.Cancel
         )
@@ -50,6 +63,7 @@ class PlateDialog(QDialog):
         form.addRow("File", row)
         form.addRow("Paper (landscape)", self.paper_box)
         form.addRow("Resolution", self.dpi_box)
+        form.addRow("Stations", self.stations_box)
         form.addRow(buttons)
 
     def _browse(self) -> None:
@@ -58,6 +72,11 @@ class PlateDialog(QDialog):
         )
         if path:
             self.path_edit.setText(path)
+
+    def stations(self) -> tuple[float | None, int | None]:
+        """(spacing in metres, count) of the builder's stations; (None, None): the design's."""
+        spacing, count = self.stations_box.currentData()
+        return spacing, count
 
     def choice(self) -> tuple[Path, str, int]:
         """(file, paper, dpi) as chosen."""

@@ -160,7 +160,9 @@ def with_length(sketch: HullSketch, length: float) -> HullSketch:
         last = len(curve.points) - 1
         return curve.with_point(last, (x0 + length, curve.points[last][1]))
 
-    return _checked(replace(out, plan=ended(out.plan), keel=ended(out.keel), sheer=ended(out.sheer)))
+    return _checked(
+        replace(out, plan=ended(out.plan), keel=ended(out.keel), sheer=ended(out.sheer))
+    )
 
 
 def with_beam(sketch: HullSketch, beam: float) -> HullSketch:
@@ -297,7 +299,10 @@ def _scale_stations(stations: Stations, fx: float, fy: float, fz: float) -> Stat
     k = stations.keel_z
     return Stations(
         x0 + (stations.x - x0) * fx,
-        tuple(np.column_stack([h[:, 0] * fy, k + (h[:, 1] - k) * fz]) for h in stations.half_sections),
+        tuple(
+            np.column_stack([h[:, 0] * fy, k + (h[:, 1] - k) * fz])
+            for h in stations.half_sections
+        ),
     )
 
 

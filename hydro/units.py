@@ -233,7 +233,10 @@ _UNITS = {
 }
 _NUMBER = r"(?:\d+(?:\.\d*)?|\.\d+)"
 #: A number, a mixed number (141 3/4, 141-3/4) or a plain fraction (3/4).
-_AMOUNT = rf"(?:(?P<{{w}}>{_NUMBER})(?:(?:\s+|-)(?P<{{n}}>\d+)/(?P<{{d}}>\d+))?|(?P<{{n2}}>\d+)/(?P<{{d2}}>\d+))"
+_AMOUNT = (
+    rf"(?:(?P<{{w}}>{_NUMBER})(?:(?:\s+|-)(?P<{{n}}>\d+)/(?P<{{d}}>\d+))?"
+    rf"|(?P<{{n2}}>\d+)/(?P<{{d2}}>\d+))"
+)
 _UNIT = r"(?P<{u}>[a-z]+|\"|″|'|′)"
 
 
@@ -243,7 +246,8 @@ def _amount(tag: str) -> str:
 
 _SIMPLE = re.compile(rf"^{_amount('a')}\s*(?:{_UNIT.format(u='ua')})?$")
 _FEET_INCHES = re.compile(
-    rf"^{_amount('a')}\s*(?P<ft>ft|foot|feet|'|′)\s*-?\s*{_amount('b')}\s*(?P<inch>in|inch|inches|\"|″)?$"
+    rf"^{_amount('a')}\s*(?P<ft>ft|foot|feet|'|′)\s*-?\s*{_amount('b')}"
+    rf"\s*(?P<inch>in|inch|inches|\"|″)?$"
 )
 _FIE = re.compile(r"^(?P<f>\d+)-(?P<i>\d{1,2})-(?P<e>[0-7])(?P<plus>\+?)$")
 

@@ -174,3 +174,11 @@ def test_pin_a_version_and_compare(window, qtbot):
     window.pin_version(False)
     assert len(window.plan_view.pinned_item.getData()[0]) == 0
     assert not window.results.compare.isVisible()
+
+
+def test_the_plate_at_the_builders_stations(window, tmp_path):
+    import app.plate as plate
+
+    out = tmp_path / "plate.png"
+    window._write_plate(plate, out, "A4", 72, stations=(0.3, None))
+    assert out.exists() and "Plate written" in window.statusBar().currentMessage()

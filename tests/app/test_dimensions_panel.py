@@ -34,7 +34,8 @@ def test_the_beam_field_sets_the_beam_exactly_and_undo_restores(qtbot):
     beam = panel.fields["beam"].metres()
     assert beam == pytest.approx(40.5 * 0.0254, abs=1e-12)
     assert 2 * max(b for _x, b in doc.committed.hull.plan.points) == beam  # exactly
-    assert 2 * generate_stations(doc.committed.hull).max_half_breadth == pytest.approx(beam, abs=1e-12)
+    stations = generate_stations(doc.committed.hull)
+    assert 2 * stations.max_half_breadth == pytest.approx(beam, abs=1e-12)
     assert doc.undo_stack.count() == 1
     assert panel.fields["beam"].text() == "40 1/2 in"
     doc.undo_stack.undo()

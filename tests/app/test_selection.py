@@ -32,7 +32,9 @@ def _box(qtbot, view, a, b, modifier=Qt.KeyboardModifier.ShiftModifier):
     qtbot.mousePress(viewport, Qt.MouseButton.LeftButton, modifier, pa)
     for i in range(1, 5):
         p = QPoint(pa.x() + (pb.x() - pa.x()) * i // 4, pa.y() + (pb.y() - pa.y()) * i // 4)
-        QTest.mouseEvent(QTest.MouseAction.MouseMove, viewport, Qt.MouseButton.NoButton, modifier, p)
+        QTest.mouseEvent(
+            QTest.MouseAction.MouseMove, viewport, Qt.MouseButton.NoButton, modifier, p
+        )
         QApplication.processEvents()
     qtbot.mouseRelease(viewport, Qt.MouseButton.LeftButton, modifier, pb)
 
@@ -85,7 +87,8 @@ def test_a_group_nudges_together(plan, qtbot):
     qtbot.keyClick(view.plot, Qt.Key.Key_Right)
     qtbot.keyClick(view.plot, Qt.Key.Key_Right)
     new = doc.committed.hull.plan.points
-    assert new[1][0] == pytest.approx(pts[1][0] + 0.002) and new[3][0] == pytest.approx(pts[3][0] + 0.002)
+    assert new[1][0] == pytest.approx(pts[1][0] + 0.002)
+    assert new[3][0] == pytest.approx(pts[3][0] + 0.002)
     assert doc.undo_stack.count() == 1
 
 
@@ -94,7 +97,9 @@ def test_the_point_menu(plan, qtbot):
     ref = PointRef("plan", 2)
     menu = view.point_menu(ref, QPoint(10, 10))
     texts = [a.text() for a in menu.actions()]
-    assert texts == ["Delete point", "Make the plan line hard-chine (corners)", "Type coordinates…"]
+    assert texts == [
+        "Delete point", "Make the plan line hard-chine (corners)", "Type coordinates…"
+    ]
     menu.actions()[1].trigger()
     assert doc.committed.hull.plan.smooth is False
     menu.close()
@@ -108,4 +113,5 @@ def test_the_point_menu(plan, qtbot):
 def test_refs_in_box_is_pure():
     hull = sample("heron-punt").hull
     refs = tuple(PointRef("plan", i) for i in range(5))
-    assert editing.refs_in_box(hull, refs, 2.7, 0.0, -1.0, 0.37) == (PointRef("plan", 0), PointRef("plan", 4))
+    inside = editing.refs_in_box(hull, refs, 2.7, 0.0, -1.0, 0.37)
+    assert inside == (PointRef("plan", 0), PointRef("plan", 4))

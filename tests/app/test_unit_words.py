@@ -72,7 +72,8 @@ def test_no_unit_word_of_the_other_system_remains(qtbot, name):
     qtbot.addWidget(window)
     with qtbot.waitSignal(window.checks.checksReady, timeout=30000):  # verdicts shown too
         window.document.recompute_now()
-    switches = {a.text().replace("&", "") for a in window.unit_actions.values()}  # the switch itself
+    # the unit switch itself names both systems
+    switches = {a.text().replace("&", "") for a in window.unit_actions.values()}
     for units, wrong in (("imperial", METRIC_WORDS), ("metric", IMPERIAL_WORDS)):
         window.options.set_units(units)
         left = [
