@@ -66,6 +66,8 @@ from app.view_options import ViewOptions
 
 __all__ = ["ChecksPanel"]
 
+#: Columns of the readings table that hold lengths (moved, pendulum, deflection).
+_LENGTH_COLUMNS = (1, 3, 4)
 _VERDICT_STATE = {"holds": "stable", "floods": "marginal", "capsizes": "unstable"}
 _VERDICT_WORDS = {"holds": "HOLDS", "floods": "FLOODS FIRST", "capsizes": "CAPSIZES"}
 
@@ -387,12 +389,15 @@ class ChecksPanel(QWidget):
                 (4, old.from_length, new.to_length),
             ):
                 item = self.readings.item(row, col)
+                if item is None or not item.text().strip():
+                    continue
                 try:
-                    value = float(item.text()) if item and item.text().strip() else None
+                    if col == 0:
+                        item.setText(f"{from_si(to_si(float(item.text()))):.6g}")
+                    else:  # a length as typed (141 3/4, 3.6 m) in the new units' words
+                        item.setText(new.length_text(old.parse_length(item.text()), unit=False))
                 except ValueError:
                     continue
-                if value is not None:
-                    item.setText(f"{from_si(to_si(value)):.6g}")
 
     def _fill_choices(self, design: Design) -> None:
         """Crew list and level-trim subjects for the committed design."""
@@ -653,7 +658,8 @@ class ChecksPanel(QWidget):
         if r is None or r.beam is None or r.beam.factor is None or not isinstance(hull, HullSketch):
             return
         design = replace(self.document.committed, hull=scale_breadth(hull, r.beam.factor))
-        self.document.edit(design, f"Beam ×{r.beam.factor:.3f} for GM {r.beam.target_gm * 1000:.0f} mm")
+        gm = self.options.units.length_text(r.beam.target_gm)
+        self.document.edit(design, f"Beam ×{r.beam.factor:.3f} for GM {gm}")
 
     # ------------------------------------------------------------ inclining test
 
@@ -662,6 +668,9 @@ class ChecksPanel(QWidget):
         text = item.text().strip().replace(",", ".") if item else ""
         if not text:
             return None
+        if col in _LENGTH_COLUMNS:  # lengths as a builder types them, in the display units
+            u = self.options.units
+            return u.to_length(u.parse_length(item.text(), -100.0, 100.0, f"reading {row + 1}"))
         try:
             value = float(text)
         except ValueError:

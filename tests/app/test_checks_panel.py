@@ -147,6 +147,9 @@ def test_bad_readings_get_a_message_and_change_nothing(panel):
     assert "needs a heel angle" in widget.incline_text.text()
     _type_readings(widget, [(5, "abc", 1.0, None, None)])
     widget.compute_incline()
+    assert "cannot read 'abc' as a length" in widget.incline_text.text()
+    _type_readings(widget, [("abc", 300, 1.0, None, None)])
+    widget.compute_incline()
     assert "'abc' is not a number" in widget.incline_text.text()
     assert not widget.incline_apply.isEnabled() and doc.committed is before
 
@@ -158,3 +161,10 @@ def test_texts_follow_the_display_units(panel):
     assert " in freeboard" in widget.shift_verdict.text() and " mm" not in widget.shift_verdict.text()
     assert " in from the aft end" in widget.trim_text.text()
     assert widget.distance_box.text().endswith(" in") and "." not in widget.distance_box.text()
+
+
+def test_reading_lengths_are_typed_as_a_builder_writes_them(panel):
+    _, widget, _ = panel("heron-punt")
+    _type_readings(widget, [(5, "30 cm", 1.0, None, None), (5, "-11 13/16 in", -1.0, None, None)])
+    plain = widget.incline_readings()
+    assert [r.distance for r in plain] == pytest.approx([0.30, -11.8125 * 0.0254])
