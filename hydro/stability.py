@@ -791,7 +791,9 @@ def flooding_mass(table: SectionTable, weights: WeightSummary, rho: float) -> fl
     hi = float(table.totals[0] @ table.weights) * rho
     if freeboard(lo) <= 0:
         return None
-    while hi - lo > 0.1:
+    for _ in range(200):  # halving a finite range to 0.1 kg never needs more
+        if not hi - lo > 0.1:
+            break
         mid = 0.5 * (lo + hi)
         if freeboard(mid) > 0:
             lo = mid
