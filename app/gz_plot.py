@@ -25,7 +25,8 @@ __all__ = ["GzPlot", "nice_ceiling", "LEGEND_HTML"]
 LEGEND_HTML = (
     f"<span style='color:{style.GZ_LINE}'>━━</span> righting arm GZ &nbsp; "
     f"<span style='color:{style.INK_FAINT}'>┅┅</span> past the gunwale (open boat fills) &nbsp; "
-    f"<span style='color:{style.WALL_SIDED}'>╍╍</span> wall-sided estimate"
+    f"<span style='color:{style.WALL_SIDED}'>╍╍</span> wall-sided estimate &nbsp; "
+    f"<span style='color:{style.HEELING_ARM}'>━·━</span> crew-shift heeling arm"
 )
 
 
