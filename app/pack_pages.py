@@ -32,7 +32,7 @@ from PySide6.QtGui import (
 )
 
 from app import palette
-from app.plate import PAPER_SIZES, marks_from_assessment, paint_plate
+from app.plate import marks_from_assessment, paint_plate, paper_mm
 from app.plate_content import IMPERIAL_SCALES, scale_label
 from app.plate_draw import CENTRE, LEFT, RIGHT, Canvas
 from hydro.build_pack import BuildPack, PieceJob
@@ -140,14 +140,6 @@ class PageSpec:
     tile: tuple[int, int] | None = None
 
 
-def _paper_mm(paper: str) -> tuple[float, float]:
-    try:
-        return PAPER_SIZES[paper]
-    except KeyError:
-        raise HullwrightError(
-            f"unknown paper {paper!r}: use one of {', '.join(PAPER_SIZES)}"
-        ) from None
-
 
 def _window_mm(page_mm: tuple[float, float]) -> tuple[float, float]:
     w, h = page_mm
@@ -183,7 +175,7 @@ def _sheets_per_page() -> int:
 
 def plan_pages(pack: BuildPack, paper: str) -> list[PageSpec]:
     """The pages of the pack in order (the plate first)."""
-    page = _paper_mm(paper)
+    page = paper_mm(paper)
     pages = [PageSpec("plate", "Print plate"), PageSpec("cutlist", "Cut list")]
     for i, job in enumerate(pack.jobs):
         pages.append(PageSpec("piece", job.piece.name, job=i))
@@ -784,7 +776,7 @@ class _Writer:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         painter.fillRect(rect, QColor(255, 255, 255))
         canvas = Canvas(painter, QPointF(0, 0), dpi)
-        page = _Page(canvas, _paper_mm(self.paper), self.u, self.design, n, len(self.pages))
+        page = _Page(canvas, paper_mm(self.paper), self.u, self.design, n, len(self.pages))
         if spec.kind == "cutlist":
             _paint_cutlist(page, self.pack)
         elif spec.kind == "piece" and spec.job is not None:
@@ -819,7 +811,7 @@ def write_pack_pdf(
     from app.plate import _ensure_gui_app
 
     _ensure_gui_app()
-    _paper_mm(paper)
+    paper_mm(paper)
     writer = _Writer(design, pack, paper, units, source)
     write_via_temp(path, writer.write, inputs)
     return len(writer.pages)

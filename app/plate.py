@@ -44,6 +44,7 @@ __all__ = [
     "FONT_FAMILY",
     "MIN_TEXT_PT",
     "PAPER_SIZES",
+    "paper_mm",
     "PlateLayout",
     "PlateMarks",
     "listed_stations",
@@ -107,7 +108,8 @@ def _ensure_gui_app() -> QGuiApplication:
     return app if app is not None else QGuiApplication([])  # type: ignore[return-value]
 
 
-def _paper(paper: str) -> tuple[float, float]:
+def paper_mm(paper: str) -> tuple[float, float]:
+    """(width, height) in mm of a named paper, landscape; HullwrightError if unknown."""
     try:
         return PAPER_SIZES[paper]
     except KeyError:
@@ -127,7 +129,7 @@ def render_plate_image(
 ) -> QImage:
     """The plate as a white QImage of the paper's size at ``dpi``, dpi stored in it."""
     _ensure_gui_app()
-    w_mm, h_mm = _paper(paper)
+    w_mm, h_mm = paper_mm(paper)
     if not 20 <= dpi <= 1200:
         raise HullwrightError("the plate resolution must be between 20 and 1200 dpi")
     analysis = analysis or analyse(design)
@@ -202,7 +204,7 @@ def render_plate_file(
     suffix = target.suffix.lower()
     if suffix not in (".png", ".pdf"):
         raise HullwrightError("the plate file must end in .png or .pdf")
-    _paper(paper)
+    paper_mm(paper)
     if assessment is None or assessment.design != design:
         assessment = assess(design, checks=extras is None)
     analysis = assessment.analysis
