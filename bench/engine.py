@@ -2,6 +2,12 @@
 
     python bench/engine.py            # the figures, with the app's allocator setting
     python bench/engine.py --default  # the same with glibc's default allocator settings
+    python bench/engine.py --numpy    # the numpy reference even when numba is installed
+
+The figures are for the engine in use, printed first (``engine: compiled`` when numba's
+kernels are loaded, see hydro/compiled.py; ``engine: numpy`` otherwise), measured after
+the kernels have finished loading; ``kernel_load_s`` is how long that took (compiling on
+the first run after installing numba, loading from numba's cache later).
 
 Hull: a 41-station Wigley form (33 points per half section, wall-sided above the design
 waterline), L 4.0 m, B 0.5 m, T 0.2 m, D 0.4 m, loaded to its design draft, G 0.15 m
@@ -13,12 +19,14 @@ from __future__ import annotations
 
 import subprocess
 import sys
+import time
 from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 import numpy as np  # noqa: E402
 
+from hydro import compiled  # noqa: E402
 from hydro.analytic import wigley  # noqa: E402
 from hydro.loads import WeightSummary  # noqa: E402
 from hydro.runtime import keep_freed_memory  # noqa: E402
@@ -38,8 +46,18 @@ def median_ms(fn) -> float:
 
 def main() -> None:
     default = "--default" in sys.argv
+    numpy_only = "--numpy" in sys.argv
     if not default:
         keep_freed_memory()
+    start = time.perf_counter()
+    compiled.select("numpy" if numpy_only else "compiled")
+    load_s = time.perf_counter() - start
+    if not default:
+        print(f"engine: {compiled.engine_name()}")
+        if compiled.engine_name() == "compiled":
+            print(f"kernel_load_s: {load_s:.2f}")
+        else:
+            print(f"engine_status: {compiled.status()}")
     stations = wigley(L, B, T, D, stations=41, points=33)
     weights = WeightSummary((), RHO * 4 / 9 * L * B * T, L / 2, 0.0, 0.15, 0.15)
     table = build_section_table(stations)
@@ -63,7 +81,8 @@ def main() -> None:
         print(f"points_per_half_section: {stations.half_sections[0].shape[0]}")
         print(f"heel_angles: {HEEL.size}")
         print(f"gz_at_30_deg_m: {curve.gz[30]:.6f}")
-        out = subprocess.run([sys.executable, __file__, "--default"], capture_output=True, text=True)
+        flags = ["--default"] + (["--numpy"] if numpy_only else [])
+        out = subprocess.run([sys.executable, __file__, *flags], capture_output=True, text=True)
         print(out.stdout, end="")
 
 

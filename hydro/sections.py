@@ -27,10 +27,13 @@ derivative dA/dh used by Newton's method) and its first and second moments.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
+from types import ModuleType
 
 import numpy as np
 from numpy.typing import NDArray
 
+from hydro import compiled
 from hydro.hull import Stations
 
 __all__ = ["SectionTable", "HeelFrame", "Cut", "build_section_table", "heel_frame", "cut"]
@@ -86,24 +89,32 @@ class HeelFrame:
     ----------
     phi : (A,) heel angles (rad), positive = starboard down
     cos, sin : (A,)
-    eta : (A, S, V) vertical coordinate of every vertex in the heeled frame
     eta_low, eta_high : (A,) lowest and highest vertex of the whole hull
     totals : (3, A, S) whole-section area, integral of xi dA, integral of eta dA
+    y, z : (S, V) the table's vertices (not copied)
+    eta : (A, S, V) vertical coordinate of every vertex in the heeled frame, made on
+        first use (the numpy path of :func:`cut`; the compiled one does without)
     """
 
     phi: FloatArray
     cos: FloatArray
     sin: FloatArray
-    eta: FloatArray
     eta_low: FloatArray
     eta_high: FloatArray
     totals: FloatArray
+    y: FloatArray
+    z: FloatArray
+
+    @cached_property
+    def eta(self) -> FloatArray:
+        """(A, S, V) eta = z cos(phi) - y sin(phi) of every vertex."""
+        return _rotated_eta(self.y, self.z, self.cos, self.sin)
 
     def take(self, idx: NDArray[np.intp]) -> HeelFrame:
         """The frame for a subset of its angles."""
         return HeelFrame(
-            self.phi[idx], self.cos[idx], self.sin[idx], self.eta[idx],
-            self.eta_low[idx], self.eta_high[idx], self.totals[:, idx],
+            self.phi[idx], self.cos[idx], self.sin[idx], self.eta_low[idx],
+            self.eta_high[idx], self.totals[:, idx], self.y, self.z,
         )
 
 
@@ -218,13 +229,16 @@ def build_section_table(stations: Stations) -> SectionTable:
     )
 
 
+def _rotated_eta(y: FloatArray, z: FloatArray, c: FloatArray, s: FloatArray) -> FloatArray:
+    eta = c[:, None, None] * z[None]
+    eta -= s[:, None, None] * y[None]
+    return eta
+
+
 def heel_frame(table: SectionTable, phi: FloatArray) -> HeelFrame:
     """Rotate every station vertex once for the heel angles ``phi`` (rad, (A,))."""
     phi = np.atleast_1d(np.asarray(phi, dtype=float))
     c, s = np.cos(phi), np.sin(phi)
-    eta = c[:, None, None] * table.z[None]
-    eta -= s[:, None, None] * table.y[None]
-    flat = eta.reshape(phi.size, -1)
     area, qy, qz = table.totals
     totals = np.stack(
         [
@@ -233,7 +247,16 @@ def heel_frame(table: SectionTable, phi: FloatArray) -> HeelFrame:
             c[:, None] * qz - s[:, None] * qy,
         ]
     )
-    return HeelFrame(phi, c, s, eta, flat.min(axis=1), flat.max(axis=1), totals)
+    kernels = compiled.kernels()
+    if kernels is not None:
+        low, high = np.empty(phi.size), np.empty(phi.size)
+        kernels.heel_extremes(table.y, table.z, c, s, low, high)
+        return HeelFrame(phi, c, s, low, high, totals, table.y, table.z)
+    eta = _rotated_eta(table.y, table.z, c, s)
+    flat = eta.reshape(phi.size, -1)
+    frame = HeelFrame(phi, c, s, flat.min(axis=1), flat.max(axis=1), totals, table.y, table.z)
+    frame.__dict__["eta"] = eta  # cached_property's slot: made already
+    return frame
 
 
 def cut(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True) -> Cut:
@@ -250,7 +273,36 @@ def cut(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True)
     Returns
     -------
     Cut with (A, S) arrays; moments are in the heeled frame (xi, eta).
+
+    Runs the compiled kernel when :mod:`hydro.compiled` has it ready, else the numpy
+    reference (:func:`cut_numpy`); the two agree to rounding.
     """
+    kernels = compiled.kernels()
+    if kernels is None:
+        return cut_numpy(table, frame, h, full)
+    return cut_compiled(kernels, table, frame, h, full)
+
+
+def cut_compiled(
+    kernels: ModuleType, table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True
+) -> Cut:
+    """:func:`cut` on the compiled kernels (``kernels``: :mod:`hydro.cut_kernels`)."""
+    shape = (frame.phi.size, table.x.size)
+    h = np.ascontiguousarray(h, dtype=np.float64)
+    if h.shape != shape:
+        raise ValueError(f"waterline heights of shape {h.shape}, expected {shape}")
+    out = np.empty((kernels.FIELDS,) + shape)
+    kernels.cut_sums(
+        table.y, table.z, table.prefix, np.ascontiguousarray(frame.totals),
+        np.ascontiguousarray(frame.cos), np.ascontiguousarray(frame.sin), h, full, out,
+    )
+    if not full:
+        return Cut(out[0], None, out[2], out[3], None, None)  # type: ignore[arg-type]
+    return Cut(*out)
+
+
+def cut_numpy(table: SectionTable, frame: HeelFrame, h: FloatArray, full: bool = True) -> Cut:
+    """:func:`cut` on numpy alone: the reference."""
     n_angles, n_st, n_vert = frame.eta.shape
     n_edges = n_vert - 1
     below = frame.eta < h[:, :, None]

@@ -1,0 +1,132 @@
+"""The hot path of :mod:`hydro.sections` compiled with numba (optional).
+
+Import this module only through :mod:`hydro.compiled`, which decides whether the
+compiled kernels are used at all.  Importing it compiles the kernels for their one
+signature each, or loads them from numba's cache (``cache=True``: beside this file in
+``__pycache__``, else numba's user cache, or ``NUMBA_CACHE_DIR`` when set).
+
+Each kernel does the arithmetic of the numpy reference in :mod:`hydro.sections` in the
+same order, term by term, so the two agree to rounding; the difference is that the
+rotated heights eta are made station by station as they are needed, the crossing edges
+are found by a scan along each section, and the sums are accumulated on the way, with
+no (angles x stations x vertices) temporaries.
+"""
+
+from __future__ import annotations
+
+import numba as nb
+import numpy as np
+from numpy.typing import NDArray
+
+__all__ = ["heel_extremes", "cut_sums", "FIELDS"]
+
+FloatArray = NDArray[np.float64]
+
+FIELDS = 6
+"""Rows of :func:`cut_sums`' output: area, q_xi, q_eta, breadth, breadth_m1, breadth_m2."""
+
+@nb.njit(
+    nb.void(nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[::1], nb.f8[::1], nb.f8[::1], nb.f8[::1]),
+    cache=True, nogil=True, boundscheck=False,
+)
+def heel_extremes(
+    y: FloatArray, z: FloatArray, cos: FloatArray, sin: FloatArray,
+    low: FloatArray, high: FloatArray,
+) -> None:  # pragma: no cover - compiled
+    """Lowest and highest eta = z cos - y sin of all vertices, per angle, into low/high (A,)."""
+    n_angles = cos.size
+    for a in range(n_angles):
+        low[a] = np.inf
+        high[a] = -np.inf
+    n_st, n_vert = y.shape
+    for i in range(n_st):
+        for k in range(n_vert):
+            yk = y[i, k]
+            zk = z[i, k]
+            for a in range(n_angles):
+                e = cos[a] * zk - sin[a] * yk
+                if e < low[a]:
+                    low[a] = e
+                if e > high[a]:
+                    high[a] = e
+
+
+@nb.njit(
+    nb.void(
+        nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[:, :, ::1], nb.f8[:, :, ::1],
+        nb.f8[::1], nb.f8[::1], nb.f8[:, ::1], nb.boolean, nb.f8[:, :, ::1],
+    ),
+    cache=True, nogil=True, boundscheck=False,
+)
+def cut_sums(
+    y: FloatArray, z: FloatArray, prefix: FloatArray, totals: FloatArray,
+    cos: FloatArray, sin: FloatArray, h: FloatArray, full: bool, out: FloatArray,
+) -> None:  # pragma: no cover - compiled
+    """Immersed area, moments and waterline breadth of every station, into ``out``.
+
+    Parameters
+    ----------
+    y, z : (S, V) closed, padded station polygons (``SectionTable.y``, ``.z``)
+    prefix : (3, S, V) body-frame prefix sums (``SectionTable.prefix``)
+    totals : (3, A, S) whole sections in the heeled frame (``HeelFrame.totals``)
+    cos, sin : (A,) of the heel angles
+    h : (A, S) waterline heights
+    full : if False, rows 1, 4 and 5 are left as they are
+    out : (6, A, S) area, q_xi, q_eta, breadth, breadth_m1, breadth_m2
+    """
+    n_angles = cos.size
+    n_st, n_vert = y.shape
+    below = np.empty(n_vert, dtype=np.bool_)
+    for a in range(n_angles):
+        c = cos[a]
+        s = sin[a]
+        for i in range(n_st):
+            hq = h[a, i]
+            for k in range(n_vert):
+                below[k] = c * z[i, k] - s * y[i, k] < hq
+            area = 0.0
+            q_xi = 0.0
+            q_eta = 0.0
+            breadth = 0.0
+            m1 = 0.0
+            m2 = 0.0
+            for k in range(n_vert - 1):
+                up = below[k]
+                if up == below[k + 1]:
+                    continue
+                e0 = c * z[i, k] - s * y[i, k]
+                e1 = c * z[i, k + 1] - s * y[i, k + 1]
+                xi0 = c * y[i, k] + s * z[i, k]
+                xi1 = c * y[i, k + 1] + s * z[i, k + 1]
+                xq = xi0 + (hq - e0) / (e1 - e0) * (xi1 - xi0)
+                if up:  # vertex k under water: the edge leaves the water
+                    sign = 1.0
+                    v_xi = xi0
+                    v_eta = e0
+                    j = k
+                else:
+                    sign = -1.0
+                    v_xi = xi1
+                    v_eta = e1
+                    j = k + 1
+                crossp = sign * (v_xi * hq - xq * v_eta)
+                pre0 = prefix[0, i, j] * sign
+                pre1 = prefix[1, i, j] * sign
+                pre2 = prefix[2, i, j] * sign
+                hx = hq * xq
+                sx = sign * xq
+                area += crossp / 2 + pre0 + hx * sign / 2
+                q_eta += (v_eta + hq) * crossp / 6 + (c * pre2 - s * pre1) + sign * hq * hx / 3
+                breadth += sx
+                if full:
+                    q_xi += (v_xi + xq) * crossp / 6 + (c * pre1 + s * pre2) + sx * hx / 6
+                    m1 += sx * xq / 2
+                    m2 += sx * xq * xq / 3
+            first = 1.0 if below[0] else 0.0
+            out[0, a, i] = area + first * totals[0, a, i]
+            out[2, a, i] = q_eta + first * totals[2, a, i]
+            out[3, a, i] = breadth
+            if full:
+                out[1, a, i] = q_xi + first * totals[1, a, i]
+                out[4, a, i] = m1
+                out[5, a, i] = m2
