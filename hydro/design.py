@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
@@ -186,8 +186,16 @@ def _most_points(stations: Stations) -> int:
     return max(len(h) for h in stations.half_sections)
 
 
-def analyse(design: Design, start: Analysis | None = None) -> Analysis:
+def analyse(
+    design: Design, start: Analysis | None = None, heel_step_deg: float | None = None
+) -> Analysis:
     """Analyse a design (``start``: an analysis of a nearby design, see analyse_stations).
+
+    ``heel_step_deg``: solve the curve at this step instead of the design's own when it
+    is coarser (during a drag).  Every figure is the same to well within 0.01 degree
+    and 0.01 mm, as the list, the largest arm, the vanishing and gunwale angles are
+    refined on the exact solver whatever the step; only the drawn curve has fewer
+    points, and the areas under it (trapezoid rule) follow the step.
 
     Raises
     ------
@@ -195,8 +203,11 @@ def analyse(design: Design, start: Analysis | None = None) -> Analysis:
         For an impossible hull or load (message names the problem).  A load the hull
         cannot carry is not an error: it is reported in ``Analysis.status``.
     """
+    settings = design.settings
+    if heel_step_deg is not None and heel_step_deg > settings.heel_step_deg:
+        settings = replace(settings, heel_step_deg=heel_step_deg)
     return analyse_stations(
-        design.stations(), design.loads, design.water_density, design.settings, start=start
+        design.stations(), design.loads, design.water_density, settings, start=start
     )
 
 

@@ -13,12 +13,13 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 from enum import Enum
-from typing import Callable
 
 import numpy as np
 from numpy.typing import NDArray
 
 from hydro.equilibrium import Equilibrium, follow_branch, level_waterline, solve_equilibrium
+from hydro.features import Crossing, Peak
+from hydro.features import refine as refine_features
 from hydro.loads import WeightSummary
 from hydro.sections import HeelFrame, SectionTable, heel_frame
 from hydro.wording import status_sentence
@@ -585,67 +586,6 @@ def _first_crossing(a: FloatArray, f: FloatArray, rising: bool, after: float) ->
     return int(idx[0]) if idx.size else None
 
 
-def _refine(
-    evaluate: Callable[[FloatArray], FloatArray],
-    roots: dict[str, tuple[float, float, bool]],
-    peak: tuple[float, float] | None,
-    rounds: int = 2,
-    points: int = 6,
-) -> tuple[dict[str, float], tuple[float, float] | None]:
-    """Refine zero crossings and one local maximum of a function on the exact solver.
-
-    ``roots`` maps a name to a bracket (lo, hi, rising); ``peak`` is a bracket around a
-    local maximum.  Every round evaluates ``points`` interior angles of each bracket in
-    one call (so the solver runs vectorised) and keeps the sub-bracket that holds the
-    crossing or the best value: after 2 rounds a 1-degree crossing bracket is 0.02
-    degrees wide (the crossing is then interpolated in it), a maximum is known to 0.2
-    degrees (its GZ to second order).  Returns the crossings (interpolated in the last
-    bracket) and (angle, value) of the maximum.
-    """
-    brackets = {k: [lo, hi, rising] for k, (lo, hi, rising) in roots.items()}
-    ends = {k: [math.nan, math.nan] for k in roots}
-    best: tuple[float, float] | None = None
-    pk = list(peak) if peak is not None else None
-    for _ in range(rounds):
-        grids = {k: np.linspace(b[0], b[1], points + 2) for k, b in brackets.items()}
-        if pk is not None:
-            grids["peak"] = np.linspace(pk[0], pk[1], points + 2)
-        if not grids:
-            break
-        angles = np.concatenate(list(grids.values()))
-        values = evaluate(angles)
-        at = 0
-        for k, g in grids.items():
-            v = values[at : at + g.size]
-            at += g.size
-            if k == "peak":
-                if not np.isfinite(v).any():
-                    pk = None
-                    continue
-                i = int(np.nanargmax(v))
-                best = (float(g[i]), float(v[i]))
-                assert pk is not None
-                pk = [float(g[max(i - 1, 0)]), float(g[min(i + 1, g.size - 1)])]
-                continue
-            rising = bool(brackets[k][2])
-            with np.errstate(invalid="ignore"):
-                hit = ((v[:-1] < 0) & (v[1:] >= 0)) if rising else ((v[:-1] > 0) & (v[1:] <= 0))
-            idx = np.flatnonzero(hit)
-            if not idx.size:  # unsolved points inside: keep the bracket
-                continue
-            i = int(idx[0])
-            brackets[k][:2] = [float(g[i]), float(g[i + 1])]
-            ends[k] = [float(v[i]), float(v[i + 1])]
-    found: dict[str, float] = {}
-    for k, b in brackets.items():
-        f0, f1 = ends[k]
-        if math.isfinite(f0) and math.isfinite(f1) and f1 != f0:
-            found[k] = b[0] + (b[1] - b[0]) * f0 / (f0 - f1)
-        else:
-            found[k] = 0.5 * (b[0] + b[1])
-    return found, best
-
-
 def righting_curve(
     table: SectionTable,
     weights: WeightSummary,
@@ -701,54 +641,72 @@ def righting_curve(
     h_side, tau_side = pts.h[keep][order], pts.tau[keep][order]
     solved = np.isfinite(h_side)
 
-    def evaluate(angles: FloatArray) -> FloatArray:
-        """GZ between solved angles, each started from its neighbours' solutions."""
+    def evaluate(angles: FloatArray) -> tuple[FloatArray, FloatArray]:
+        """GZ and low-side freeboard between solved angles, each started from its
+        neighbours' solutions."""
         guess = None
         if solved.sum() >= 2:
             at = a[solved]
             guess = (np.interp(angles, at, h_side[solved]), np.interp(angles, at, tau_side[solved]))
-        return side * curve_points(
-            table, weights, rho, base, side * angles, free_trim, guess, chain=False
-        ).gz
+        p = curve_points(table, weights, rho, base, side * angles, free_trim, guess, chain=False)
+        return side * p.gz, p.low_freeboard
 
+    def around(i: int) -> slice:
+        return slice(max(i - 1, 0), min(i + 3, a.size))
+
+    features: dict[str, Crossing | Peak] = {}
     if not is_asymmetric(weights) and base.gm > 0:
         list_i: int | None = -1  # upright
     else:
         list_i = _first_crossing(a, g, rising=True, after=0.0)
-    roots: dict[str, tuple[float, float, bool]] = {}
     if list_i is not None and list_i >= 0 and refine:
-        roots["list"] = (float(a[list_i]), float(a[list_i + 1]), True)
+        features["list"] = Crossing(
+            0, float(a[list_i]), float(a[list_i + 1]), True, a[around(list_i)], g[around(list_i)]
+        )
     start = 0.0 if list_i is None or list_i < 0 else float(a[list_i + 1])
     finite = np.isfinite(g) & (a >= start - 1e-12)
-    peak: tuple[float, float] | None = None
     i_max = int(np.nanargmax(np.where(finite, g, -np.inf))) if finite.any() else 0
     if refine and finite.any():
-        peak = (float(a[max(i_max - 1, 0)]), float(a[min(i_max + 1, a.size - 1)]))
+        near = slice(max(i_max - 2, 0), i_max + 3)
+        features["peak"] = Peak(0, start, float(a[-1]), a[near], g[near])
     avs_i = _first_crossing(a, g, rising=False, after=start) if list_i is not None else None
     if avs_i is not None and refine:
-        roots["avs"] = (float(a[avs_i]), float(a[avs_i + 1]), False)
-    found, best = _refine(evaluate, roots, peak) if refine else ({}, None)
+        features["avs"] = Crossing(
+            0, float(a[avs_i]), float(a[avs_i + 1]), False, a[around(avs_i)], g[around(avs_i)]
+        )
+    gunwale_i = _first_crossing(a, fb, rising=False, after=0.0) if base.min_freeboard > 0 else None
+    if gunwale_i is not None and refine:
+        features["gunwale"] = Crossing(
+            1, float(a[gunwale_i]), float(a[gunwale_i + 1]), False,
+            a[around(gunwale_i)], fb[around(gunwale_i)],
+        )
+    found = refine_features(evaluate, features) if features else {}
 
-    def crossing(i: int, rising: bool) -> float:
-        return _crossings(a[i : i + 2], g[i : i + 2], rising)[0]
+    def crossing(i: int, f: FloatArray, rising: bool) -> float:
+        return _crossings(a[i : i + 2], f[i : i + 2], rising)[0]
+
+    def refined(name: str, i: int, f: FloatArray, rising: bool) -> float:
+        value = found.get(name)
+        return value if isinstance(value, float) else crossing(i, f, rising)
 
     if list_i is None:
         list_a: float | None = None
     elif list_i < 0:
         list_a = 0.0
     else:
-        list_a = found.get("list", crossing(list_i, True))
+        list_a = refined("list", list_i, g, True)
     if avs_i is None:
         avs_a = None if list_a is not None else 0.0
     else:
-        avs_a = found.get("avs", crossing(avs_i, False))
+        avs_a = refined("avs", avs_i, g, False)
     max_a, max_g = (float(a[i_max]), float(g[i_max])) if finite.any() else (0.0, math.nan)
-    if best is not None and best[1] >= max_g:
+    best = found.get("peak")
+    if isinstance(best, tuple) and best[1] >= max_g:
         max_a, max_g = best
-    under = _crossings(a, fb, rising=False)
-    gunwale = under[0] if base.min_freeboard > 0 and under else None
     if base.min_freeboard <= 0:
-        gunwale = 0.0
+        gunwale: float | None = 0.0
+    else:
+        gunwale = None if gunwale_i is None else refined("gunwale", gunwale_i, fb, False)
 
     def signed(v: float | None) -> float | None:
         return None if v is None else side * v + 0.0
@@ -802,6 +760,22 @@ def flooding_mass(table: SectionTable, weights: WeightSummary, rho: float) -> fl
     return lo
 
 
+def _resampled(curve: StabilityCurve, angles: FloatArray) -> Waterlines | None:
+    """The curve's waterlines at other heel angles (a drag's coarser grid, or the full
+    one after it), interpolated between its solved angles; None when it does not span
+    them."""
+    if curve.waterlines is None:
+        return None
+    if np.array_equal(curve.heel_deg, angles):
+        return curve.waterlines
+    h, tau = curve.waterlines
+    ok = np.isfinite(h) & np.isfinite(tau)
+    at = curve.heel_deg[ok]
+    if at.size < 2 or angles.min() < at[0] - 1e-9 or angles.max() > at[-1] + 1e-9:
+        return None
+    return np.interp(angles, at, h[ok]), np.interp(angles, at, tau[ok])
+
+
 def analyse_table(
     table: SectionTable,
     weights: WeightSummary,
@@ -824,9 +798,7 @@ def analyse_table(
         return Analysis(Status.SINKS, weights, None, None, capacity_kg=capacity)
     angles = both_sides(heel_deg) if is_asymmetric(weights) else np.asarray(heel_deg, float)
     previous = start.curve if start is not None else None
-    warm = None
-    if previous is not None and np.array_equal(previous.heel_deg, angles):
-        warm = previous.waterlines
+    warm = None if previous is None else _resampled(previous, angles)
     curve = righting_curve(table, weights, rho, base, angles, free_trim, warm)
     if curve.list_deg is None:
         status = Status.CAPSIZES
