@@ -51,6 +51,34 @@ def heel_extremes(
                     high[a] = e
 
 
+@nb.njit(nb.intp(nb.boolean[::1], nb.intp[::1]), cache=True, nogil=True, boundscheck=False)
+def _crossing_edges(below: NDArray[np.bool_], edges: NDArray[np.intp]) -> int:  # pragma: no cover
+    """Edges k whose ends lie on both sides of the water, in order, into ``edges``; how many.
+
+    One branch-free pass finds how many there are and the first and last (a single
+    piece of the section: two); only a section cut in several pieces needs a second
+    pass to list them all.
+    """
+    n_edges = below.size - 1
+    count = 0
+    first = n_edges
+    last = -1
+    for k in range(n_edges):
+        crossing = below[k] != below[k + 1]
+        count += crossing
+        first = min(first, k if crossing else n_edges)
+        last = max(last, k if crossing else -1)
+    if count <= 2:
+        edges[0] = first
+        edges[1] = last
+        return count
+    count = 0
+    for k in range(n_edges):
+        edges[count] = k
+        count += below[k] != below[k + 1]
+    return count
+
+
 @nb.njit(
     nb.void(
         nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[:, :, ::1], nb.f8[:, :, ::1],
@@ -77,6 +105,7 @@ def cut_sums(
     n_angles = cos.size
     n_st, n_vert = y.shape
     below = np.empty(n_vert, dtype=np.bool_)
+    edges = np.empty(n_vert, dtype=np.intp)
     for a in range(n_angles):
         c = cos[a]
         s = sin[a]
@@ -84,22 +113,21 @@ def cut_sums(
             hq = h[a, i]
             for k in range(n_vert):
                 below[k] = c * z[i, k] - s * y[i, k] < hq
+            n_cross = _crossing_edges(below, edges)
             area = 0.0
             q_xi = 0.0
             q_eta = 0.0
             breadth = 0.0
             m1 = 0.0
             m2 = 0.0
-            for k in range(n_vert - 1):
-                up = below[k]
-                if up == below[k + 1]:
-                    continue
+            for n in range(n_cross):
+                k = edges[n]
                 e0 = c * z[i, k] - s * y[i, k]
                 e1 = c * z[i, k + 1] - s * y[i, k + 1]
                 xi0 = c * y[i, k] + s * z[i, k]
                 xi1 = c * y[i, k + 1] + s * z[i, k + 1]
                 xq = xi0 + (hq - e0) / (e1 - e0) * (xi1 - xi0)
-                if up:  # vertex k under water: the edge leaves the water
+                if below[k]:  # vertex k under water: the edge leaves the water
                     sign = 1.0
                     v_xi = xi0
                     v_eta = e0
