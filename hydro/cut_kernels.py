@@ -25,6 +25,10 @@ FloatArray = NDArray[np.float64]
 FIELDS = 6
 """Rows of :func:`cut_sums`' output: area, q_xi, q_eta, breadth, breadth_m1, breadth_m2."""
 
+_FEW_ANGLES = 12
+"""Below this many angles :func:`heel_extremes` runs angle by angle, else vertex by vertex."""
+
+
 @nb.njit(
     nb.void(nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[::1], nb.f8[::1], nb.f8[::1], nb.f8[::1]),
     cache=True, nogil=True, boundscheck=False,
@@ -33,12 +37,32 @@ def heel_extremes(
     y: FloatArray, z: FloatArray, cos: FloatArray, sin: FloatArray,
     low: FloatArray, high: FloatArray,
 ) -> None:  # pragma: no cover - compiled
-    """Lowest and highest eta = z cos - y sin of all vertices, per angle, into low/high (A,)."""
+    """Lowest and highest eta = z cos - y sin of all vertices, per angle, into low/high (A,).
+
+    For many angles the innermost loop runs over the angles (it vectorises); for a few,
+    over the vertices with the extremes held in registers.
+    """
     n_angles = cos.size
+    n_st, n_vert = y.shape
+    if n_angles < _FEW_ANGLES:
+        for a in range(n_angles):
+            c = cos[a]
+            s = sin[a]
+            lo = np.inf
+            hi = -np.inf
+            for i in range(n_st):
+                for k in range(n_vert):
+                    e = c * z[i, k] - s * y[i, k]
+                    if e < lo:
+                        lo = e
+                    if e > hi:
+                        hi = e
+            low[a] = lo
+            high[a] = hi
+        return
     for a in range(n_angles):
         low[a] = np.inf
         high[a] = -np.inf
-    n_st, n_vert = y.shape
     for i in range(n_st):
         for k in range(n_vert):
             yk = y[i, k]

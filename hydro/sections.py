@@ -240,13 +240,13 @@ def heel_frame(table: SectionTable, phi: FloatArray) -> HeelFrame:
     phi = np.atleast_1d(np.asarray(phi, dtype=float))
     c, s = np.cos(phi), np.sin(phi)
     area, qy, qz = table.totals
-    totals = np.stack(
-        [
-            np.broadcast_to(area, (phi.size, area.size)),
-            c[:, None] * qy + s[:, None] * qz,
-            c[:, None] * qz - s[:, None] * qy,
-        ]
-    )
+    cc, ss = c[:, None], s[:, None]
+    totals = np.empty((3, phi.size, area.size))
+    totals[0] = area
+    np.multiply(cc, qy, out=totals[1])
+    totals[1] += ss * qz
+    np.multiply(cc, qz, out=totals[2])
+    totals[2] -= ss * qy
     kernels = compiled.kernels()
     if kernels is not None:
         low, high = np.empty(phi.size), np.empty(phi.size)
