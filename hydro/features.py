@@ -64,10 +64,10 @@ class _Samples:
             self.angle.insert(k, a)
             self.value.insert(k, v)
 
-    def finite(self) -> tuple[FloatArray, FloatArray]:
-        a, v = np.array(self.angle), np.array(self.value)
-        ok = np.isfinite(v)
-        return a[ok], v[ok]
+    def finite(self) -> tuple[list[float], list[float]]:
+        """The samples with a finite value (the evaluator gives NaN where unsolved)."""
+        pairs = [(a, v) for a, v in zip(self.angle, self.value) if math.isfinite(v)]
+        return [a for a, _ in pairs], [v for _, v in pairs]
 
 
 @dataclass
@@ -90,17 +90,16 @@ class Crossing:
     def __post_init__(self) -> None:
         self.samples.add(self.angles, self.values)
 
-    def _bracket(self) -> tuple[int, FloatArray, FloatArray] | None:
+    def _bracket(self) -> tuple[int, list[float], list[float]] | None:
+        """Index i of the first crossing between samples i and i + 1 inside the grid
+        bracket, with the finite samples."""
         a, v = self.samples.finite()
-        inside = (a >= self.lo - 1e-12) & (a <= self.hi + 1e-12)
-        ai, vi = a[inside], v[inside]
-        lo_v, hi_v = vi[:-1], vi[1:]
-        hit = (lo_v < 0) & (hi_v >= 0) if self.rising else (lo_v > 0) & (hi_v <= 0)
-        idx = np.flatnonzero(hit)
-        if not idx.size:
-            return None
-        offset = int(np.flatnonzero(inside)[0])
-        return offset + int(idx[0]), a, v
+        for i in range(len(a) - 1):
+            if a[i] < self.lo - 1e-12 or a[i + 1] > self.hi + 1e-12:
+                continue
+            if (v[i] < 0 <= v[i + 1]) if self.rising else (v[i] > 0 >= v[i + 1]):
+                return i, a, v
+        return None
 
     def propose(self) -> list[float]:
         found = self._bracket()
@@ -112,7 +111,7 @@ class Crossing:
         if hi - lo <= 2 * ROOT_TOL_DEG + 1e-9:
             self.done = True
             return []
-        near = slice(max(i - 1, 0), min(i + 3, a.size))
+        near = slice(max(i - 1, 0), min(i + 3, len(a)))
         guess = _poly_root(a[near], v[near], lo, hi)
         wanted = [g for g in (guess - ROOT_TOL_DEG, guess + ROOT_TOL_DEG) if lo < g < hi]
         new = [g for g in wanted if all(abs(g - b) > 1e-9 for b in self.samples.angle)]
@@ -125,7 +124,7 @@ class Crossing:
         if found is None:  # unsolved samples inside: the grid bracket's middle
             return 0.5 * (self.lo + self.hi)
         i, a, v = found
-        return float(a[i] + (a[i + 1] - a[i]) * v[i] / (v[i] - v[i + 1]))
+        return a[i] + (a[i + 1] - a[i]) * v[i] / (v[i] - v[i + 1])
 
 
 @dataclass
@@ -146,20 +145,21 @@ class Peak:
     def __post_init__(self) -> None:
         self.samples.add(self.angles, self.values)
 
-    def _around_best(self) -> tuple[FloatArray, FloatArray] | None:
+    def _around_best(self) -> tuple[list[float], list[float]] | None:
+        """The best sample in the range with its two neighbours (alone at an end)."""
         a, v = self.samples.finite()
-        keep = (a >= self.lo - 1e-12) & (a <= self.hi + 1e-12)
-        a, v = a[keep], v[keep]
-        if not a.size:
+        inside = [k for k in range(len(a)) if self.lo - 1e-12 <= a[k] <= self.hi + 1e-12]
+        if not inside:
             return None
-        b = int(np.argmax(v))
-        if b == 0 or b == a.size - 1:  # largest at an end of the range
+        a, v = [a[k] for k in inside], [v[k] for k in inside]
+        b = max(range(len(v)), key=v.__getitem__)
+        if b == 0 or b == len(a) - 1:  # largest at an end of the range
             return a[b : b + 1], v[b : b + 1]
         return a[b - 1 : b + 2], v[b - 1 : b + 2]
 
     def propose(self) -> list[float]:
         three = self._around_best()
-        if three is None or three[0].size == 1:
+        if three is None or len(three[0]) == 1:
             self.done = True
             return []
         a, _ = three
@@ -182,14 +182,14 @@ class Peak:
         three = self._around_best()
         if three is None:
             return None
-        if three[0].size == 1:
-            return float(three[0][0]), float(three[1][0])
+        if len(three[0]) == 1:
+            return three[0][0], three[1][0]
         return _parabola_top(*three)
 
 
-def _interpolant(a: FloatArray, v: FloatArray) -> Callable[[float], float]:
+def _interpolant(xs: list[float], values: list[float]) -> Callable[[float], float]:
     """The polynomial through the samples (Newton's divided differences), as a function."""
-    xs, c = a.tolist(), v.tolist()
+    c = list(values)
     n = len(xs)
     for j in range(1, n):
         for i in range(n - 1, j - 1, -1):
@@ -204,7 +204,7 @@ def _interpolant(a: FloatArray, v: FloatArray) -> Callable[[float], float]:
     return p
 
 
-def _poly_root(a: FloatArray, v: FloatArray, lo: float, hi: float) -> float:
+def _poly_root(a: list[float], v: list[float], lo: float, hi: float) -> float:
     """Zero in [lo, hi] of the polynomial through the samples (lo and hi among them,
     with values of opposite sign), by the Illinois method."""
     p = _interpolant(a, v)
@@ -224,11 +224,12 @@ def _poly_root(a: FloatArray, v: FloatArray, lo: float, hi: float) -> float:
     return x
 
 
-def _poly_top(a: FloatArray, v: FloatArray, lo: float, hi: float) -> float:
+def _poly_top(a: list[float], v: list[float], lo: float, hi: float) -> float:
     """Angle of the largest value in [lo, hi] of the cubic through the four samples
     nearest its middle, by golden-section search."""
-    near = np.sort(np.argsort(np.abs(a - 0.5 * (lo + hi)))[:4])
-    p = _interpolant(a[near], v[near])
+    mid = 0.5 * (lo + hi)
+    near = sorted(sorted(range(len(a)), key=lambda k: abs(a[k] - mid))[:4])
+    p = _interpolant([a[k] for k in near], [v[k] for k in near])
     ratio = 0.5 * (math.sqrt(5.0) - 1.0)
     x1, x2 = hi - ratio * (hi - lo), lo + ratio * (hi - lo)
     f1, f2 = p(x1), p(x2)
@@ -244,10 +245,10 @@ def _poly_top(a: FloatArray, v: FloatArray, lo: float, hi: float) -> float:
     return 0.5 * (lo + hi)
 
 
-def _parabola_top(a: FloatArray, v: FloatArray) -> tuple[float, float]:
+def _parabola_top(a: list[float], v: list[float]) -> tuple[float, float]:
     """Vertex (angle, value) of the parabola through three samples, kept between the
     outer two; the middle sample when the three are not concave."""
-    (a0, a1, a2), (v0, v1, v2) = a.tolist(), v.tolist()
+    (a0, a1, a2), (v0, v1, v2) = a, v
     d0, d2 = a1 - a0, a1 - a2
     den = d0 * (v1 - v2) - d2 * (v1 - v0)
     if not den > 0 and not den < 0:
