@@ -11,6 +11,7 @@ from PySide6.QtWidgets import QApplication
 import pyqtgraph as pg  # noqa: E402 - PySide6 first, so pyqtgraph binds to it
 
 from hydro import HullwrightError, load_design
+from hydro import compiled
 from hydro.runtime import keep_freed_memory
 
 from app.document import HullDocument, starter_design
@@ -68,6 +69,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     app.setWindowIcon(icon("hullwright"))
     pg.setConfigOptions(antialias=True)
     keep_freed_memory()
+    compiled.warm_up()  # the optional compiled engine loads while the window opens
     window, error = create_window(args)
     window.show()
     sys.excepthook = _shown_in_words(window)
