@@ -22,6 +22,11 @@ which are exact for straight edges):
 
 The same crossing points give the waterline breadth at each station (the exact
 derivative dA/dh used by Newton's method) and its first and second moments.
+
+This numpy code is the reference.  When numba is installed, :func:`heel_frame` and
+:func:`cut` run the same arithmetic compiled (:mod:`hydro.cut_kernels`, chosen by
+:mod:`hydro.compiled`), station by station with no (angles x stations x vertices)
+temporaries; the rotated heights ``HeelFrame.eta`` are then made only if asked for.
 """
 
 from __future__ import annotations
@@ -112,10 +117,13 @@ class HeelFrame:
 
     def take(self, idx: NDArray[np.intp]) -> HeelFrame:
         """The frame for a subset of its angles."""
-        return HeelFrame(
+        sub = HeelFrame(
             self.phi[idx], self.cos[idx], self.sin[idx], self.eta_low[idx],
             self.eta_high[idx], self.totals[:, idx], self.y, self.z,
         )
+        if "eta" in self.__dict__:  # made already: a subset, not a new rotation
+            sub.__dict__["eta"] = self.eta[idx]
+        return sub
 
 
 @dataclass(frozen=True, eq=False)
@@ -291,6 +299,8 @@ def cut_compiled(
     h = np.ascontiguousarray(h, dtype=np.float64)
     if h.shape != shape:
         raise ValueError(f"waterline heights of shape {h.shape}, expected {shape}")
+    if frame.totals.shape != (3,) + shape or frame.y.shape != table.y.shape:
+        raise ValueError("the heel frame was made for another section table")
     out = np.empty((kernels.FIELDS,) + shape)
     kernels.cut_sums(
         table.y, table.z, table.prefix, np.ascontiguousarray(frame.totals),

@@ -261,3 +261,11 @@ def test_auto_runs_numpy_until_the_kernels_are_loaded():
         None,
     )
     assert out.splitlines() == ["numpy False", "True compiled [[0.25, 0.25, 0.25]]"]
+
+
+@needs_numba
+def test_a_frame_of_another_table_is_refused(kernels):
+    frame = heel_frame(TABLES["wigley"], np.radians([0.0, 10.0]))
+    other = TABLES["padded"]
+    with pytest.raises(ValueError, match="another section table"):
+        cut_compiled(kernels, other, frame, np.zeros((2, other.x.size)))
