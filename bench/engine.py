@@ -12,7 +12,9 @@ the first run after installing numba, loading from numba's cache later).
 Hull: a 41-station Wigley form (33 points per half section, wall-sided above the design
 waterline), L 4.0 m, B 0.5 m, T 0.2 m, D 0.4 m, loaded to its design draft, G 0.15 m
 above K.  ``full_analysis_ms`` = section table + free-trim upright equilibrium and
-hydrostatics + GZ curve 0-90 degrees at 1 degree with free trim at every angle.
+hydrostatics + GZ curve 0-90 degrees at 1 degree with free trim at every angle;
+``heel_frame_ms`` and ``cut_ms`` = one rotation of the hull for the 91 angles and one
+cut of it at the curve's waterlines (every field), the engine's hot path.
 """
 
 from __future__ import annotations
@@ -32,7 +34,7 @@ from hydro.loads import WeightSummary  # noqa: E402
 from hydro.runtime import keep_freed_memory  # noqa: E402
 
 import timing  # noqa: E402 - bench/timing.py, beside this script
-from hydro.sections import build_section_table  # noqa: E402
+from hydro.sections import build_section_table, cut, heel_frame  # noqa: E402
 from hydro.stability import righting_curve, upright  # noqa: E402
 
 L, B, T, D = 4.0, 0.5, 0.2, 0.4
@@ -76,6 +78,12 @@ def main() -> None:
     print(f"{prefix}upright_ms: {median_ms(lambda: upright(table, weights, RHO)):.3f}")
     print(f"{prefix}curve_ms: {median_ms(lambda: righting_curve(table, weights, RHO, base, HEEL)):.2f}")
     print(f"{prefix}table_build_ms: {median_ms(lambda: build_section_table(stations)):.3f}")
+    phi = np.radians(HEEL)
+    frame = heel_frame(table, phi)
+    h, tau = curve.waterlines if curve.waterlines is not None else (np.zeros(HEEL.size),) * 2
+    levels = h[:, None] + tau[:, None] * table.x[None, :]
+    print(f"{prefix}heel_frame_ms: {median_ms(lambda: heel_frame(table, phi)):.3f}")
+    print(f"{prefix}cut_ms: {median_ms(lambda: cut(table, frame, levels)):.3f}")
     if not default:
         print(f"stations: {stations.x.size}")
         print(f"points_per_half_section: {stations.half_sections[0].shape[0]}")

@@ -11,6 +11,7 @@ from __future__ import annotations
 import importlib
 import importlib.util
 import os
+import shutil
 import subprocess
 import sys
 
@@ -269,3 +270,22 @@ def test_a_frame_of_another_table_is_refused(kernels):
     other = TABLES["padded"]
     with pytest.raises(ValueError, match="another section table"):
         cut_compiled(kernels, other, frame, np.zeros((2, other.x.size)))
+
+
+@needs_numba
+def test_no_writable_cache_directory_falls_back_to_numpy(tmp_path):
+    """A read-only install: numba finds nowhere to cache the kernels, numpy serves."""
+    shutil.copytree(ROOT / "hydro", tmp_path / "hydro",
+                    ignore=shutil.ignore_patterns("__pycache__"))
+    (tmp_path / "hydro" / "__pycache__").touch()  # a file: no cache beside the source
+    blocked = tmp_path / "not-a-folder"
+    blocked.touch()
+    env = {k: v for k, v in os.environ.items() if k not in ("NUMBA_CACHE_DIR", "PYTHONPATH")}
+    env.update(HOME=str(blocked), XDG_CACHE_HOME=str(blocked / "cache"),
+               NUMBA_CACHE_DIR=str(blocked / "numba"), PYTHONDONTWRITEBYTECODE="1")
+    env[compiled.ENGINE_VARIABLE] = "compiled"
+    code = ONE_CUT + "print(compiled.engine_name(), a.round(9).tolist()); print(compiled.status())"
+    out = subprocess.run([sys.executable, "-c", code], cwd=tmp_path, env=env,
+                         capture_output=True, text=True, check=True).stdout.splitlines()
+    assert out[0] == "numpy [[0.25, 0.25, 0.25]]"
+    assert out[1].startswith("numpy (compiled kernels unavailable: ")
