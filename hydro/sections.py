@@ -119,7 +119,7 @@ class HeelFrame:
         """The frame for a subset of its angles."""
         sub = HeelFrame(
             self.phi[idx], self.cos[idx], self.sin[idx], self.eta_low[idx],
-            self.eta_high[idx], self.totals[:, idx], self.y, self.z,
+            self.eta_high[idx], np.ascontiguousarray(self.totals[:, idx]), self.y, self.z,
         )
         if "eta" in self.__dict__:  # made already: a subset, not a new rotation
             sub.__dict__["eta"] = self.eta[idx]
