@@ -9,7 +9,6 @@ Without numba these tests skip; the engine switch is checked either way.
 from __future__ import annotations
 
 import importlib
-import importlib.util
 import os
 import shutil
 import subprocess
@@ -26,7 +25,12 @@ from hydro.sections import Cut, SectionTable, build_section_table, cut_compiled,
 from tests.hydro.helpers import run
 from tests.paths import ROOT, SAMPLES
 
-HAVE_NUMBA = importlib.util.find_spec("numba") is not None
+try:
+    import numba  # noqa: F401
+except ImportError:
+    HAVE_NUMBA = False
+else:
+    HAVE_NUMBA = True
 needs_numba = pytest.mark.skipif(
     not HAVE_NUMBA, reason="numba is not installed (the optional 'fast' extra)"
 )
