@@ -70,9 +70,15 @@ def warm_up(wait: bool = False) -> bool:
     Parameters
     ----------
     wait : block until the kernels are loaded or have failed to load
+
+    An unknown ``HULLWRIGHT_ENGINE`` is not reported here but by the first cut, where
+    the app and the command line show an analysis' errors.
     """
     _go.set()
-    kernels()
+    try:
+        kernels()
+    except HullwrightError:
+        return False
     loader = _loader
     if wait and loader is not None:
         loader.join()
