@@ -67,12 +67,12 @@ def kernels() -> ModuleType | None:
 def warm_up(wait: bool = False) -> bool:
     """Start loading the kernels now (unless ``numpy`` is chosen); True if in use.
 
+    An unknown ``HULLWRIGHT_ENGINE`` is not reported here but by the first cut, where
+    the app and the command line show an analysis' errors.
+
     Parameters
     ----------
     wait : block until the kernels are loaded or have failed to load
-
-    An unknown ``HULLWRIGHT_ENGINE`` is not reported here but by the first cut, where
-    the app and the command line show an analysis' errors.
     """
     _go.set()
     try:
@@ -116,9 +116,7 @@ def status() -> str:
 
 def _check(choice: str, where: str) -> None:
     if choice not in CHOICES:
-        raise HullwrightError(
-            f"{where} {choice!r} is not one of {', '.join(CHOICES)}"
-        )
+        raise HullwrightError(f"{where} {choice!r} is not one of {', '.join(CHOICES)}")
 
 
 def _decide(choice: str | None) -> None:
