@@ -3,6 +3,7 @@
     python bench/drag.py                      # the paper canoe and the raft samples
     python bench/drag.py DESIGN.json ...      # other designs
     python bench/drag.py --all                # every sample
+    python bench/drag.py --breakdown          # also: each frame split (analysis, app, paint)
 
 ``drag_frame_ms``: median over the mouse moves of a drag of a plan handle on each design
 (the frames of all the drags together), from sending the mouse-move event to the end of
@@ -14,6 +15,14 @@ exact analysis, table and plot update, painting of every view that changed).
 window shown with its first figures painted; the interpreter's own start is not in it.
 ``load_average``: the machine's 1-minute load when the script ends (shared machines
 give slower, noisier figures under load).
+
+With ``--breakdown`` each design also gets its frames split in three (medians, and the
+frames slower than 16 ms one by one): ``analysis`` (time inside the engine's ``analyse``,
+with the number of analyses in the frame), ``paint`` (the runs of paint events: Qt's
+drawing and pyqtgraph's paint code) and ``app`` (the rest: mouse and scene handling,
+signals, views and readout updates); ``gc`` is the time the garbage collector ran in the
+frame (already inside the three) and ``cpu`` the CPU time of the whole process (every
+thread) in it: above the frame's wall time, a background thread was busy too.
 The drag starts once the builder's checks (run in the background after loading) are
 done; a drag that starts during them stops them at their next step.
 """
@@ -24,6 +33,7 @@ import time
 
 T0 = time.perf_counter()
 
+import gc  # noqa: E402
 import os  # noqa: E402
 import statistics  # noqa: E402
 import sys  # noqa: E402
@@ -45,6 +55,7 @@ import pyqtgraph as pg  # noqa: E402
 
 from hydro.runtime import keep_freed_memory  # noqa: E402
 
+import app.document  # noqa: E402
 from app.main import create_window  # noqa: E402
 
 SAMPLES = Path(__file__).resolve().parents[1] / "sample_hulls"
@@ -65,6 +76,93 @@ class PaintCounter(QObject):
         return False
 
 
+class Breakdown(QObject):
+    """Splits each frame into engine analysis, painting and the rest (``--breakdown``).
+
+    Wraps the document's ``analyse``, watches every paint event of the application and
+    times the garbage collector.  :meth:`start` before a frame, :meth:`stop` after it.
+    """
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.frames: list[dict[str, float]] = []
+        self._analyse = app.document.analyse
+        app.document.analyse = self._timed_analyse
+        QApplication.instance().installEventFilter(self)
+        gc.callbacks.append(self._on_gc)
+        self._gc_start = 0.0
+        self.start()
+
+    def start(self) -> None:
+        self._start = time.perf_counter()
+        self._cpu = time.process_time()
+        self._analysis = self._gc = self._paint = 0.0
+        self._analyses = 0
+        self._paint_start: float | None = None
+
+    def _timed_analyse(self, *args, **kwargs):
+        t = time.perf_counter()
+        try:
+            return self._analyse(*args, **kwargs)
+        finally:
+            self._analysis += time.perf_counter() - t
+            self._analyses += 1
+
+    def _on_gc(self, phase: str, info: dict) -> None:
+        if phase == "start":
+            self._gc_start = time.perf_counter()
+        else:
+            self._gc += time.perf_counter() - self._gc_start
+
+    def eventFilter(self, watched, event) -> bool:
+        """Paint events come in runs (one repaint of the window): each run is timed up
+        to the next event of another kind."""
+        if event.type() == QEvent.Type.Paint:
+            if self._paint_start is None:
+                self._paint_start = time.perf_counter()
+        elif self._paint_start is not None:
+            self._paint += time.perf_counter() - self._paint_start
+            self._paint_start = None
+        return False
+
+    def stop(self) -> None:
+        end = time.perf_counter()
+        if self._paint_start is not None:
+            self._paint += end - self._paint_start
+        total = end - self._start
+        self.frames.append({
+            "total": 1000 * total,
+            "analysis": 1000 * self._analysis,
+            "paint": 1000 * self._paint,
+            "app": 1000 * (total - self._analysis - self._paint),
+            "gc": 1000 * self._gc,
+            "cpu": 1000 * (time.process_time() - self._cpu),
+            "analyses": self._analyses,
+        })
+
+    def close(self) -> None:
+        app.document.analyse = self._analyse
+        QApplication.instance().removeEventFilter(self)
+        gc.callbacks.remove(self._on_gc)
+
+    def report(self, name: str, skip: int) -> list[str]:
+        """Lines for one design: the medians, then each frame slower than 16 ms."""
+        frames = self.frames[skip:]
+        med = {k: statistics.median(f[k] for f in frames) for k in frames[0]}
+        lines = [
+            f"breakdown[{name}]: analysis {med['analysis']:.1f}  app {med['app']:.1f}  "
+            f"paint {med['paint']:.1f}  (gc {med['gc']:.1f}, cpu {med['cpu']:.1f}; medians, ms)"
+        ]
+        for i, f in enumerate(frames, start=skip):
+            if f["total"] > 16.0:
+                lines.append(
+                    f"  slow frame {i}: {f['total']:.1f} = analysis {f['analysis']:.1f} "
+                    f"({f['analyses']:.0f} analyses) + app {f['app']:.1f} + paint {f['paint']:.1f}"
+                    f"  (gc {f['gc']:.1f}, cpu {f['cpu']:.1f})"
+                )
+        return lines
+
+
 def settle(window, painted: PaintCounter, before: int, limit_s: float = 5.0) -> None:
     """Run the event loop until the analysis is in and the readout plot has repainted."""
     doc = window.document
@@ -77,7 +175,7 @@ def pixel(plot, x: float, y: float) -> QPoint:
     return plot.mapFromScene(plot.getViewBox().mapViewToScene(QPointF(x, y)))
 
 
-def run(path: Path) -> dict[str, float]:
+def run(path: Path, breakdown: bool = False) -> dict:
     # a fresh settings file per window, so no run inherits another's layout
     os.environ["HULLWRIGHT_SETTINGS"] = tempfile.mkstemp(prefix="hullwright-bench-", suffix=".ini")[1]
     window, error = create_window([str(path)])
@@ -101,14 +199,21 @@ def run(path: Path) -> dict[str, float]:
     QTest.mousePress(viewport, Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier, start)
     QApplication.processEvents()
     frames = []
+    split = Breakdown() if breakdown else None
     for i in range(1, MOVES + 1):
         offset = 30 - abs(30 - i)  # one pixel a move: out 30 px, then back to 0 and out again
         before = gz_painted.count
+        if split:
+            split.start()
         t = time.perf_counter()
         end = QPoint(start.x(), start.y() - offset)
         QTest.mouseMove(viewport, end)
         settle(window, gz_painted, before)
         frames.append(time.perf_counter() - t)
+        if split:
+            split.stop()
+    if split:
+        split.close()
     before = gz_painted.count
     t = time.perf_counter()
     QTest.mouseRelease(viewport, Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier, end)
@@ -124,6 +229,7 @@ def run(path: Path) -> dict[str, float]:
         "drag_frame_ms": 1000 * statistics.median(frames),
         "drag_frame_p90_ms": 1000 * statistics.quantiles(frames, n=10)[-1],
         "release_ms": 1000 * release,
+        "breakdown": split.report(path.stem, 2) if split else [],
     }
 
 
@@ -137,7 +243,7 @@ def main() -> None:
         paths = sorted(SAMPLES.glob("*.json"))
     else:
         paths = [Path(a) for a in args] if args else list(DEFAULT)
-    results = [run(path) for path in paths]
+    results = [run(path, "--breakdown" in sys.argv) for path in paths]
     startup_ms = 1000 * (results[0]["shown"] - T0)
     frames = [f for r in results for f in r["frames"]]
     for path, r in zip(paths, results):
@@ -145,6 +251,9 @@ def main() -> None:
             f"drag_frame_ms[{path.stem}]: {r['drag_frame_ms']:.1f}  "
             f"(p90 {r['drag_frame_p90_ms']:.1f}, release {r['release_ms']:.1f})"
         )
+    for r in results:
+        for line in r["breakdown"]:
+            print(line)
     print(f"designs: {', '.join(p.name for p in paths)}")
     print(f"drag_frame_ms: {1000 * statistics.median(frames):.1f}")
     print(f"drag_frame_p90_ms: {1000 * statistics.quantiles(frames, n=10)[-1]:.1f}")
