@@ -1,7 +1,8 @@
 """The build view: the flat panels, the sheet layout and the warnings of the design.
 
 It rebuilds the pack on a background thread after every committed edit (undo, redo,
-open), never during a drag, and drops results a newer edit made stale.  The sheet size
+open), never during a drag: a drag or a newer edit stops the rebuild in progress at
+once (:mod:`app.interrupt`), and a result a newer edit made stale is dropped.  The sheet size
 and strain limit are view settings kept in QSettings; File › Export build pack writes
 the PDF (:mod:`app.pack_pages`) with the same settings.
 """
@@ -24,6 +25,7 @@ from PySide6.QtWidgets import (
 )
 
 from app.document import HullDocument
+from app.interrupt import Interrupted, Interruptible
 from app.view_options import ViewOptions
 from hydro import Design, HullwrightError
 from hydro.build_pack import BuildPack, PackSettings, build_pack
@@ -48,10 +50,13 @@ class _PackJob(QRunnable):
         super().__init__()
         self.generation, self.design = generation, design
         self.settings, self.relay = settings, relay
+        self.guard = Interruptible()
 
     def run(self) -> None:
         try:
-            result: object = build_pack(self.design, self.settings)
+            result: object = self.guard.run(lambda: build_pack(self.design, self.settings))
+        except Interrupted:
+            return
         except Exception as e:  # noqa: BLE001 - shown in the view, never lost on a thread
             result = e
         try:
@@ -86,6 +91,7 @@ class BuildView(QWidget):
         self._relay.done.connect(self._on_done)
         self._pool = QThreadPool(self)
         self._pool.setMaxThreadCount(1)
+        self._guard: Interruptible | None = None  # stops the newest rebuild started
         self._stale = True
 
         self.sheet_box = QComboBox()
@@ -198,6 +204,12 @@ class BuildView(QWidget):
     def _on_drag(self) -> None:
         """A drag began or moved: whatever is running is stale; wait for the release."""
         self._generation += 1
+        self._interrupt()
+
+    def _interrupt(self) -> None:
+        if self._guard is not None:
+            self._guard.interrupt()
+            self._guard = None
 
     def refresh(self) -> None:
         """Rebuild the pack of the committed design on the background thread (at once if
@@ -207,9 +219,10 @@ class BuildView(QWidget):
             self._stale = True
             return
         self._stale = False
-        self._pool.start(
-            _PackJob(self._generation, self.document.committed, self.pack_settings(), self._relay)
-        )
+        self._interrupt()
+        job = _PackJob(self._generation, self.document.committed, self.pack_settings(), self._relay)
+        self._guard = job.guard
+        self._pool.start(job)
 
     def wait(self, msecs: int = 10000) -> bool:
         """Block until the background rebuild is done (tests, export)."""
@@ -312,5 +325,6 @@ class BuildView(QWidget):
 
     def closeEvent(self, event) -> None:  # noqa: N802 - Qt's name
         self._generation += 1
+        self._interrupt()
         self._pool.waitForDone(5000)
         super().closeEvent(event)

@@ -11,7 +11,6 @@ document, so each is one undo step.
 from __future__ import annotations
 
 import math
-import threading
 from dataclasses import replace
 
 import numpy as np
@@ -50,6 +49,7 @@ from hydro.whatif import SensitivityRow
 
 from app import style
 from app.checks_runner import CheckResults, ChecksJob, Relay
+from app.interrupt import Interruptible
 from app.document import HullDocument
 from app.length_box import LengthBox
 from app.markers import Markers, marker_style
@@ -107,7 +107,7 @@ class ChecksPanel(QWidget):
         self.results: CheckResults | None = None
         self.incline: InclineResult | None = None
         self._generation = 0
-        self._stop = threading.Event()  # set to abandon the run in progress
+        self._guard: Interruptible | None = None  # stops the newest run started
         self._stopped = False
         self._relay = Relay(self)  # deleted with the panel, so late results go nowhere
         self._relay.done.connect(self._on_done)
@@ -524,7 +524,8 @@ class ChecksPanel(QWidget):
 
     def _on_drag(self) -> None:
         self._timer.stop()
-        self._stop.set()  # a run in progress would only slow the drag down
+        if self._interrupt():  # a run in progress would only slow the drag down
+            self.state.setText("The checks wait for the end of the drag.")
         if self.document.is_previewing and self.arm_curve is not None and self.arm_curve.isVisible():
             self.state.setText("Figures from before the drag; they update when you let go.")
             self._hide_arm()
@@ -539,12 +540,17 @@ class ChecksPanel(QWidget):
         if self._stopped:
             return
         self._generation += 1
-        self._stop.set()
-        self._stop = threading.Event()
+        self._interrupt()
         self.state.setText("Working out the checks…")
-        self._pool.start(
-            ChecksJob(self._generation, self.document.committed, self.trim_choice, self._relay, self._stop)
-        )
+        job = ChecksJob(self._generation, self.document.committed, self.trim_choice, self._relay)
+        self._guard = job.guard
+        self._pool.start(job)
+
+    def _interrupt(self) -> bool:
+        """Stop the newest run at once if it has not finished (its result would be
+        stale); True if one was stopped."""
+        guard, self._guard = self._guard, None
+        return guard is not None and guard.interrupt()
 
     def _on_done(self, generation: int, result: object) -> None:
         if generation != self._generation:
@@ -567,7 +573,7 @@ class ChecksPanel(QWidget):
         """Stop: no more runs, and results still on their way are dropped."""
         self._timer.stop()
         self._generation += 1
-        self._stop.set()
+        self._interrupt()
         if not self._stopped:
             self._stopped = True
             self._relay.done.disconnect(self._on_done)

@@ -2,14 +2,14 @@
 plus the level-trim aid for whoever the panel chose to move.
 
 ``run_checks`` is pure (no Qt); the job relays its result, or the error it met, to the
-GUI thread through a signal and drops it once a newer edit or a drag made it stale.  The
+GUI thread through a signal.  A newer edit or a drag stops it at once, wherever it is
+(:mod:`app.interrupt`), so it never slows a drag down.  The
 check cases themselves are the design's own ``design.checks`` (edited through the
 document), so the panel, the command line and the plate show the same cases.
 """
 
 from __future__ import annotations
 
-import threading
 from dataclasses import dataclass
 from typing import Callable
 
@@ -20,6 +20,8 @@ from hydro.aids import BeamResult, TrimResult, level_trim
 from hydro.assess import Assessment, Cancelled, assess
 from hydro.heel_checks import HeelCheck
 from hydro.whatif import SensitivityRow, SwampResult
+
+from app.interrupt import Interrupted, Interruptible
 
 __all__ = ["CheckResults", "Cancelled", "ChecksJob", "Relay", "run_checks"]
 
@@ -89,17 +91,22 @@ class Relay(QObject):
 
 
 class ChecksJob(QRunnable):
+    """One run of the checks; ``guard.interrupt()`` stops it (see :mod:`app.interrupt`)."""
+
     def __init__(self, generation: int, design: Design, trim_subject: tuple[str, int],
-                 relay: Relay, stop: threading.Event):
+                 relay: Relay):
         super().__init__()
         self.generation, self.design, self.relay = generation, design, relay
         self.trim_subject = trim_subject
-        self.stop = stop
+        self.guard = Interruptible()
 
     def run(self) -> None:
+        guard = self.guard
         try:
-            result: object = run_checks(self.design, self.trim_subject, self.stop.is_set)
-        except Cancelled:
+            result: object = guard.run(
+                lambda: run_checks(self.design, self.trim_subject, lambda: guard.interrupted)
+            )
+        except (Cancelled, Interrupted):
             return
         except Exception as e:  # noqa: BLE001 - shown in the panel, never lost on a thread
             result = e

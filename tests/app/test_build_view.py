@@ -83,3 +83,36 @@ def test_frames_typed_in_display_units(view, qtbot):
     widget.frames_edit.editingFinished.emit()
     assert "Frames:" in widget.warnings.text()
     assert sum(j.piece.kind == "frame" for j in widget.pack.jobs) == 2
+
+
+def test_a_drag_stops_the_rebuild_in_progress_at_once(qtbot, monkeypatch):
+    import threading
+    import time
+
+    import app.build_view as build_view
+
+    started = threading.Event()
+    calls = []
+
+    def slow_first_then_real(design, settings):
+        calls.append(design)
+        if len(calls) == 1:  # the rebuild the drag interrupts: would take a minute
+            started.set()
+            end = time.monotonic() + 60
+            while time.monotonic() < end:
+                sum(range(100))
+        return build_pack(design, settings)
+
+    monkeypatch.setattr(build_view, "build_pack", slow_first_then_real)
+    doc = HullDocument(sample("heron-punt"))
+    widget = BuildView(doc, ViewOptions(), open_settings())
+    qtbot.addWidget(widget)
+    widget.show()
+    assert started.wait(20)
+    doc.preview(_wider(doc), "drag")
+    doc.recompute_now()
+    assert widget.wait(20000)  # stopped long before its minute was up
+    assert widget.rebuilds == 0
+    doc.finish_preview("wider")
+    qtbot.waitUntil(lambda: widget.rebuilds == 1, timeout=20000)
+    assert widget.pack is not None and len(calls) == 2

@@ -1,6 +1,9 @@
 """The builder's checks panel: shows the hydro checks' own results, applies them as undo
 steps, and handles the inclining test's readings (bad ones get a message)."""
 
+import threading
+import time
+
 import numpy as np
 import pytest
 from PySide6.QtWidgets import QTableWidgetItem
@@ -168,3 +171,38 @@ def test_reading_lengths_are_typed_as_a_builder_writes_them(panel):
     _type_readings(widget, [(5, "30 cm", 1.0, None, None), (5, "-11 13/16 in", -1.0, None, None)])
     plain = widget.incline_readings()
     assert [r.distance for r in plain] == pytest.approx([0.30, -11.8125 * 0.0254])
+
+
+def test_checks_stop_when_a_drag_begins_and_run_again_after_the_release(qtbot, monkeypatch):
+    import app.checks_runner as runner
+    from tests.app.test_build_view import _wider
+
+    started = threading.Event()
+    calls = []
+
+    def slow_first_then_real(design, *args, **kwargs):
+        calls.append(design)
+        if len(calls) == 1:  # the run the drag interrupts: would take a minute
+            started.set()
+            end = time.monotonic() + 60
+            while time.monotonic() < end:
+                sum(range(100))
+        return real_assess(design, *args, **kwargs)
+
+    real_assess = runner.assess
+    monkeypatch.setattr(runner, "assess", slow_first_then_real)
+    doc = HullDocument(sample("heron-punt"))
+    widget = ChecksPanel(doc, ViewOptions(), GzPlot())
+    qtbot.addWidget(widget)
+    ready = []
+    widget.checksReady.connect(ready.append)
+    widget.recompute()
+    assert started.wait(20)
+    doc.preview(_wider(doc), "drag")
+    doc.recompute_now()  # the drag frame: shown and analysed
+    assert widget.wait(20000)  # stopped long before its minute was up
+    assert ready == [] and "end of the drag" in widget.state.text()
+    doc.finish_preview("wider")
+    qtbot.waitUntil(lambda: len(ready) == 1, timeout=30000)
+    assert ready[0].design == doc.committed and len(calls) == 2
+    widget.shutdown()
