@@ -14,6 +14,7 @@ from app import style
 
 __all__ = [
     "OutlineItem",
+    "follow_every_move",
     "VerticalBand",
     "segments",
     "polygon_path",
@@ -53,6 +54,29 @@ def style_axes(plot: pg.PlotWidget) -> None:
         axis.enableAutoSIPrefix(False)
         axis.setTextPen(style.INK)
         axis.setPen(style.INK_FAINT)
+
+
+def follow_every_move(plot: pg.PlotWidget) -> None:
+    """Let the plot's scene pass on every mouse move, and skip hover searches in a drag.
+
+    pyqtgraph drops a mouse move that comes within 10 ms of the one before (its
+    ``mouseRateLimit``): when frames are that fast, the last move of a drag could be
+    dropped and the drawing and figures would stop short of the pointer.  The document
+    already coalesces moves (newest wins), so nothing is lost by taking them all.
+    While an item is being dragged no other item may take the hover, yet pyqtgraph
+    still looks for the items under the pointer on every move (a scene search and a
+    shape test per item, about 1.5 ms): that search is skipped until the release.
+    """
+    scene = plot.scene()
+    scene._moveEventIsAllowed = lambda: True
+    send_hover = scene.sendHoverEvents
+
+    def hover_unless_dragging(ev, exitOnly: bool = False) -> None:  # noqa: N803 - pyqtgraph's
+        if not exitOnly and scene.dragItem is not None and ev.buttons():
+            return
+        send_hover(ev, exitOnly)
+
+    scene.sendHoverEvents = hover_unless_dragging
 
 
 def polygon_path(x: np.ndarray, y: np.ndarray) -> QPainterPath:

@@ -31,7 +31,7 @@ from hydro import Analysis, HullSketch
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import set_length_axis, style_axes
+from app.drawing import follow_every_move, set_length_axis, style_axes
 from app.editing import PointRef
 from app.view_options import ViewOptions
 
@@ -125,6 +125,7 @@ class SketchView(QWidget):
         self.view_box.setAspectLocked(True, ratio=1.0)
         self.view_box.disableAutoRange()
         style_axes(self.plot)
+        follow_every_move(self.plot)
         self.plot.installEventFilter(self)
         self.plot.scene().sigMouseMoved.connect(self._on_mouse_moved)
         self.plot.scene().sigMouseClicked.connect(self._on_mouse_clicked)

@@ -3,7 +3,7 @@
 import numpy as np
 import pytest
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QHBoxLayout, QWidget
+from PySide6.QtWidgets import QApplication, QHBoxLayout, QWidget
 
 from app.document import HullDocument
 from app.plan_view import PlanView
@@ -126,3 +126,30 @@ def test_delete_key_removes_the_selected_point(setup, qtbot):
     qtbot.keyClick(plan.plot, Qt.Key.Key_Delete)
     assert len(doc.committed.hull.plan.points) == n - 1
     assert doc.selection is None
+
+
+def test_mid_drag_the_readout_is_exact_for_the_pointer_position(setup, qtbot):
+    from hydro import analyse
+
+    doc, plan, panel = setup
+    x, b = doc.committed.hull.plan.points[2]
+    viewport = plan.plot.viewport()
+    a, end = to_pixel(plan.plot, x, b), to_pixel(plan.plot, x, b + 0.1)
+    qtbot.mousePress(viewport, Qt.MouseButton.LeftButton, pos=a)
+    for i in range(1, 5):
+        QApplication.processEvents()  # as between real mouse moves: recompute, repaint
+        qtbot.mouseMove(viewport, a + (end - a) * i / 5)
+    qtbot.mouseMove(viewport, end)  # right after the one before: it must not be dropped
+    qtbot.waitUntil(lambda: not doc.analysis_pending)
+    assert doc.is_previewing and doc.analysis_is_live
+    shown_b = doc.design.hull.plan.points[2][1]
+    assert shown_b == pytest.approx(b + 0.1, abs=2 * data_per_pixel(plan.plot))
+    fresh = analyse(doc.design)
+    units = plan.options.units
+    assert panel.values["gm"].text() == units.length_text(fresh.hydrostatics.gm, unit=False)
+    assert np.allclose(panel.gz_plot.open_part.getData()[1],
+                       fresh.curve.gz[: panel.gz_plot.open_part.getData()[1].size], atol=1e-6)
+    qtbot.mouseRelease(viewport, Qt.MouseButton.LeftButton, pos=end)
+    qtbot.waitUntil(lambda: not doc.analysis_pending and not doc.analysis_is_live)
+    assert doc.committed.hull.plan.points[2][1] == shown_b
+    assert panel.values["gm"].text() == units.length_text(fresh.hydrostatics.gm, unit=False)
