@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import QRectF, Qt
-from PySide6.QtGui import QPainterPath
+from PySide6.QtGui import QFontMetrics, QPainter, QPainterPath
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem, QGraphicsRectItem
 
 from hydro.units import UnitSystem, inches_text
@@ -14,6 +14,7 @@ from app import style
 
 __all__ = [
     "OutlineItem",
+    "PathCurve",
     "follow_every_move",
     "VerticalBand",
     "segments",
@@ -24,12 +25,24 @@ __all__ = [
 
 
 def set_length_axis(axis: pg.AxisItem, units: UnitSystem) -> None:
-    """Show an axis in metres as display lengths: mm, or inches with fractions (1 1/2)."""
+    """Show an axis in metres as display lengths: mm, or inches with fractions (1 1/2).
+
+    A vertical axis keeps room for a wide label in these units and never gives it back,
+    so a label that changes during a drag never re-lays out the plot (which repaints
+    every axis and grid, tens of milliseconds).
+    """
     axis.setScale(units.length_factor)
     if units.imperial:
         axis.tickStrings = _inch_ticks  # type: ignore[method-assign]
     elif "tickStrings" in vars(axis):
         del axis.tickStrings
+    if axis.orientation in ("left", "right"):
+        font = axis.style["tickFont"] or axis.font()
+        axis.textWidth = QFontMetrics(font).horizontalAdvance(_WIDE_LABEL[units.imperial])
+        axis.setStyle(autoReduceTextSpace=False)  # resizes the axis to the room reserved
+
+
+_WIDE_LABEL = {False: "-0000", True: "-00 00/00"}
 
 
 def _inch_ticks(values, scale, spacing) -> list[str]:
@@ -106,6 +119,42 @@ class OutlineItem(QGraphicsPathItem):
 
     def clear(self) -> None:
         self.setPath(QPainterPath())
+
+
+class PathCurve(QGraphicsPathItem):
+    """A polyline in data coordinates drawn by Qt alone, for lines that change every
+    frame of a drag.
+
+    It takes the ``setData(x, y)`` / ``getData()`` of pyqtgraph's PlotCurveItem and
+    its ``connect`` modes ("all", "pairs", "finite"), but its bounds, hit tests and
+    painting are Qt's C++ (PlotCurveItem measures its bounds in Python, with a
+    fresh pixel size, dozens of times a frame).  No fill, no shadow, no clicks.
+    """
+
+    def __init__(self, pen, connect: str = "all"):
+        super().__init__()
+        self.setPen(pen)
+        self._connect = connect
+        self._x = self._y = np.empty(0)
+
+    def setData(self, x, y) -> None:  # noqa: N802 - PlotCurveItem's name
+        self._x, self._y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+        if self._x.size == 0:
+            self.setPath(QPainterPath())
+        else:
+            self.setPath(pg.arrayToQPath(self._x, self._y, connect=self._connect))
+
+    def getData(self) -> tuple[np.ndarray, np.ndarray]:  # noqa: N802
+        return self._x, self._y
+
+    def paint(self, painter: QPainter, option, widget=None) -> None:
+        """Qt's drawing, smoothed as pyqtgraph's curves are (its ``antialias`` option)."""
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, _ANTIALIAS())
+        super().paint(painter, option, widget)
+
+
+def _ANTIALIAS() -> bool:  # noqa: N802 - read when painting, as pyqtgraph does
+    return bool(pg.getConfigOption("antialias"))
 
 
 class VerticalBand(QGraphicsRectItem):
