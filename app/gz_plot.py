@@ -15,7 +15,7 @@ from PySide6.QtCore import Qt, Signal
 from hydro import StabilityCurve
 
 from app import style
-from app.drawing import VerticalBand, set_length_axis, style_axes
+from app.drawing import PathCurve, VerticalBand, set_length_axis, style_axes
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
 
@@ -83,13 +83,13 @@ class GzPlot(pg.PlotWidget):
         self.addItem(self.beyond_band, ignoreBounds=True)
         self.zero = pg.InfiniteLine(pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1))
         self.addItem(self.zero, ignoreBounds=True)
-        self.wall_sided = pg.PlotCurveItem(
+        self.wall_sided = PathCurve(
             pen=pg.mkPen(style.WALL_SIDED, width=1.5, style=Qt.PenStyle.DashLine), connect="finite"
         )
-        self.beyond_part = pg.PlotCurveItem(
+        self.beyond_part = PathCurve(
             pen=pg.mkPen(style.INK_FAINT, width=2, style=Qt.PenStyle.DotLine), connect="finite"
         )
-        self.open_part = pg.PlotCurveItem(pen=pg.mkPen(style.GZ_LINE, width=2.5), connect="finite")
+        self.open_part = PathCurve(pen=pg.mkPen(style.GZ_LINE, width=2.5), connect="finite")
         for item in (self.wall_sided, self.beyond_part, self.open_part):
             self.addItem(item)
         self.gunwale_line = pg.InfiniteLine(

@@ -15,7 +15,7 @@ from hydro import HullSketch, Stations
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem, segments
+from app.drawing import OutlineItem, PathCurve, segments
 from app.editing import EditRefused
 from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
@@ -42,8 +42,8 @@ class PlanView(SketchView):
             "half-breadth at the gunwale",
         )
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
-        self.stations = pg.PlotCurveItem(pen=pg.mkPen(style.GRID, width=1), connect="pairs")
-        self.section_marks = pg.PlotCurveItem(
+        self.stations = PathCurve(pen=pg.mkPen(style.GRID, width=1), connect="pairs")
+        self.section_marks = PathCurve(
             pen=pg.mkPen(style.STATION_MARK, width=1.5, style=Qt.PenStyle.DashLine), connect="pairs"
         )
         self.centreline = pg.InfiniteLine(

@@ -11,7 +11,7 @@ from hydro import Analysis, HullSketch, Stations
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem, segments
+from app.drawing import OutlineItem, PathCurve, segments
 from app.editing import EditRefused
 from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
@@ -41,11 +41,11 @@ class ProfileView(SketchView):
         self.water = OutlineItem(None, 0.0, style.WATER_FILL)
         self.water.setZValue(-5)
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
-        self.stations = pg.PlotCurveItem(pen=pg.mkPen(style.GRID, width=1), connect="pairs")
-        self.section_marks = pg.PlotCurveItem(
+        self.stations = PathCurve(pen=pg.mkPen(style.GRID, width=1), connect="pairs")
+        self.section_marks = PathCurve(
             pen=pg.mkPen(style.STATION_MARK, width=1.5, style=Qt.PenStyle.DashLine), connect="pairs"
         )
-        self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
+        self.waterline = PathCurve(pen=pg.mkPen(style.WATER_LINE, width=2))
         self.centres = Markers()
         self.centres.setZValue(8)
         self._centre_styles = [  # G, B

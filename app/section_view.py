@@ -23,7 +23,7 @@ from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem
+from app.drawing import OutlineItem, PathCurve
 from app.editing import EditRefused, PointRef
 from app.length_box import LengthBox
 from app.markers import Markers, marker_style
@@ -77,8 +77,8 @@ class SectionView(SketchView):
         self.water = OutlineItem(None, 0.0, style.WATER_FILL)
         self.water.setZValue(5)
         self.outline = OutlineItem(style.INK, 2.0, "#ffffff")
-        self.body_plan = pg.PlotCurveItem(pen=pg.mkPen(style.INK_FAINT, width=1), connect="finite")
-        self.waterline = pg.PlotCurveItem(pen=pg.mkPen(style.WATER_LINE, width=2))
+        self.body_plan = PathCurve(pen=pg.mkPen(style.INK_FAINT, width=1), connect="finite")
+        self.waterline = PathCurve(pen=pg.mkPen(style.WATER_LINE, width=2))
         self.waterline.setZValue(6)
         self.centreline = pg.InfiniteLine(pos=0.0, angle=90, pen=pg.mkPen(style.INK_FAINT, width=1))
         self.centres = Markers()

@@ -34,7 +34,7 @@ def test_plate_uses_the_palette(name):
 def test_screen_draws_each_meaning_in_its_colour(qtbot):
     plot = GzPlot()
     qtbot.addWidget(plot)
-    assert plot.wall_sided.opts["pen"].color() == QColor(palette.WALL_SIDED)
+    assert plot.wall_sided.pen().color() == QColor(palette.WALL_SIDED)
     handles = ControlPoints()
     plain_brush = handles._plain.brush.color()
     selected_brush = handles._marked.brush.color()
