@@ -153,6 +153,7 @@ class BuildView(QWidget):
         self.sheet_box.currentIndexChanged.connect(self._on_settings_changed)
         self.strain_box.valueChanged.connect(self._on_settings_changed)
         document.designChanged.connect(self.refresh)
+        document.dragStarted.connect(self._on_drag)
         document.designChanging.connect(self._on_drag)
         options.changed.connect(self._show_summary)
         self.refresh()

@@ -142,6 +142,7 @@ class ChecksPanel(QWidget):
                 gz_plot.addItem(item, ignoreBounds=True)
 
         document.designChanged.connect(self._on_design_changed)
+        document.dragStarted.connect(self._on_drag)
         document.designChanging.connect(self._on_drag)
         options.changed.connect(self._refresh_units)
         self._refresh_units()

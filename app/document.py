@@ -146,6 +146,7 @@ class HullDocument(QObject):
 
     Signals
     -------
+    dragStarted : a drag's first preview was asked for (before its first analysis)
     designChanging : the preview changed during a drag (no undo entry yet)
     designChanged : the committed design changed (edit, undo, redo, new, open)
     analysisReady(Analysis) : a new analysis of the current design
@@ -155,6 +156,7 @@ class HullDocument(QObject):
     fileChanged : the file path or the saved/unsaved state changed
     """
 
+    dragStarted = Signal()
     designChanging = Signal()
     designChanged = Signal()
     analysisReady = Signal(object)
@@ -263,7 +265,11 @@ class HullDocument(QObject):
         Nothing happens at once: the newest preview is checked, shown and analysed
         when the event loop comes round, so a burst of mouse moves costs one frame.
         An impossible design is held back with a notice; the last good one stays.
+        The first preview of a drag emits ``dragStarted`` at once, so background work
+        stops before the first frame is analysed.
         """
+        if not self.is_previewing:
+            self.dragStarted.emit()
         self._pending = (design, note)
         self._timer.start()
 
