@@ -71,7 +71,9 @@ class LengthBox(QDoubleSpinBox):
         return self.value()
 
     def set_metres(self, metres: float) -> None:
-        """Show ``metres`` without emitting ``valueChanged``."""
+        """Show ``metres`` without emitting ``valueChanged`` (nothing to do if shown)."""
+        if self.value() == metres and self.lineEdit().text() == self.textFromValue(metres):
+            return  # views refresh on every drag frame: no repaint for the same figure
         with QSignalBlocker(self):
             self.setValue(metres)
             self.lineEdit().setText(self.textFromValue(self.value()))
