@@ -71,24 +71,28 @@ class _Samples:
 
 
 @dataclass
-class Crossing:
-    """A zero crossing of ``series`` (an index into the evaluator's outputs).
-
-    ``lo``, ``hi``: the grid bracket; ``rising``: the function goes from < 0 to >= 0
-    (else from > 0 to <= 0); ``angles``, ``values``: the grid samples to start from.
-    """
+class _Feature:
+    """One feature of the ``series``-th output of the evaluator, between ``lo`` and
+    ``hi``, starting from the grid samples ``angles``, ``values``."""
 
     series: int
     lo: float
     hi: float
-    rising: bool
     angles: FloatArray
     values: FloatArray
-    samples: _Samples = field(default_factory=_Samples)
-    done: bool = False
+    samples: _Samples = field(default_factory=_Samples, init=False)
+    done: bool = field(default=False, init=False)
 
     def __post_init__(self) -> None:
         self.samples.add(self.angles, self.values)
+
+
+@dataclass
+class Crossing(_Feature):
+    """A zero crossing: ``lo``, ``hi`` is the grid bracket; ``rising``: the function
+    goes from < 0 to >= 0 (else from > 0 to <= 0)."""
+
+    rising: bool
 
     def _bracket(self) -> tuple[int, list[float], list[float]] | None:
         """Index i of the first crossing between samples i and i + 1 inside the grid
@@ -128,22 +132,9 @@ class Crossing:
 
 
 @dataclass
-class Peak:
-    """The largest value of ``series`` between ``lo`` and ``hi`` (a local maximum).
-
-    ``angles``, ``values``: the grid samples around the grid's best one.
-    """
-
-    series: int
-    lo: float
-    hi: float
-    angles: FloatArray
-    values: FloatArray
-    samples: _Samples = field(default_factory=_Samples)
-    done: bool = False
-
-    def __post_init__(self) -> None:
-        self.samples.add(self.angles, self.values)
+class Peak(_Feature):
+    """The largest value between ``lo`` and ``hi`` (a local maximum); ``angles``,
+    ``values``: the grid samples around the grid's best one."""
 
     def _around_best(self) -> tuple[list[float], list[float]] | None:
         """The best sample in the range with its two neighbours (alone at an end)."""
@@ -166,8 +157,10 @@ class Peak:
         if a[2] - a[0] <= 2 * PEAK_TOL_DEG + 1e-9:
             self.done = True
             return []
-        first = len(self.samples.angle) == len(self.angles)
-        vertex = _poly_top(*self.samples.finite(), a[0], a[2]) if first else _parabola_top(*three)[0]
+        if len(self.samples.angle) == len(self.angles):  # the first round: the grid only
+            vertex = _poly_top(*self.samples.finite(), a[0], a[2])
+        else:
+            vertex = _parabola_top(*three)[0]
         step = min(PEAK_TOL_DEG, (a[2] - a[0]) / 4)
         wanted = [vertex + k * step for k in PEAK_PATTERN]
         new = [
@@ -274,7 +267,7 @@ def refine(
     >>> f = lambda a: (np.sin(np.radians(2 * a)) - 0.6,)
     >>> grid = np.arange(0.0, 91.0, 5.0)
     >>> g = f(grid)[0]
-    >>> x = refine(f, {"up": Crossing(0, 15.0, 20.0, True, grid[2:6], g[2:6]),
+    >>> x = refine(f, {"up": Crossing(0, 15.0, 20.0, grid[2:6], g[2:6], rising=True),
     ...                "top": Peak(0, 0.0, 90.0, grid[8:11], g[8:11])})
     >>> round(x["up"], 5), round(float(np.degrees(np.arcsin(0.6))) / 2, 5)
     (18.43495, 18.43495)

@@ -651,8 +651,10 @@ def righting_curve(
         p = curve_points(table, weights, rho, base, side * angles, free_trim, guess, chain=False)
         return side * p.gz, p.low_freeboard
 
-    def around(i: int) -> slice:
-        return slice(max(i - 1, 0), min(i + 3, a.size))
+    def crossing_at(i: int, series: int, f: FloatArray, rising: bool) -> Crossing:
+        """A crossing of f between a[i] and a[i + 1], from the samples around it."""
+        near = slice(max(i - 1, 0), min(i + 3, a.size))
+        return Crossing(series, float(a[i]), float(a[i + 1]), a[near], f[near], rising=rising)
 
     features: dict[str, Crossing | Peak] = {}
     if not is_asymmetric(weights) and base.gm > 0:
@@ -660,9 +662,7 @@ def righting_curve(
     else:
         list_i = _first_crossing(a, g, rising=True, after=0.0)
     if list_i is not None and list_i >= 0 and refine:
-        features["list"] = Crossing(
-            0, float(a[list_i]), float(a[list_i + 1]), True, a[around(list_i)], g[around(list_i)]
-        )
+        features["list"] = crossing_at(list_i, 0, g, rising=True)
     start = 0.0 if list_i is None or list_i < 0 else float(a[list_i + 1])
     finite = np.isfinite(g) & (a >= start - 1e-12)
     i_max = int(np.nanargmax(np.where(finite, g, -np.inf))) if finite.any() else 0
@@ -671,15 +671,10 @@ def righting_curve(
         features["peak"] = Peak(0, start, float(a[-1]), a[near], g[near])
     avs_i = _first_crossing(a, g, rising=False, after=start) if list_i is not None else None
     if avs_i is not None and refine:
-        features["avs"] = Crossing(
-            0, float(a[avs_i]), float(a[avs_i + 1]), False, a[around(avs_i)], g[around(avs_i)]
-        )
+        features["avs"] = crossing_at(avs_i, 0, g, rising=False)
     gunwale_i = _first_crossing(a, fb, rising=False, after=0.0) if base.min_freeboard > 0 else None
     if gunwale_i is not None and refine:
-        features["gunwale"] = Crossing(
-            1, float(a[gunwale_i]), float(a[gunwale_i + 1]), False,
-            a[around(gunwale_i)], fb[around(gunwale_i)],
-        )
+        features["gunwale"] = crossing_at(gunwale_i, 1, fb, rising=False)
     found = refine_features(evaluate, features) if features else {}
 
     def crossing(i: int, f: FloatArray, rising: bool) -> float:

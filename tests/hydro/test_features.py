@@ -24,7 +24,7 @@ def _start(f, grid, name):
         return Peak(0, float(grid[0]), float(grid[-1]), grid[near], v[near])
     i = int(np.flatnonzero((v[:-1] > 0) & (v[1:] <= 0))[0])
     near = slice(max(i - 1, 0), i + 3)
-    return Crossing(0, float(grid[i]), float(grid[i + 1]), False, grid[near], v[near])
+    return Crossing(0, float(grid[i]), float(grid[i + 1]), grid[near], v[near], rising=False)
 
 
 CURVES = {
