@@ -18,6 +18,9 @@ FloatArray = NDArray[np.float64]
 def pchip_slopes(t: FloatArray, v: FloatArray) -> FloatArray:
     """Fritsch-Carlson slopes at the knots ``t`` (strictly increasing) of values ``v``.
 
+    A curve has a handful of control points, so the slopes are worked out on plain
+    floats (numpy's per-call overhead would be most of the cost).
+
     Parameters
     ----------
     t, v : (n,) arrays
@@ -26,30 +29,35 @@ def pchip_slopes(t: FloatArray, v: FloatArray) -> FloatArray:
     -------
     (n,) array of derivatives dv/dt at the knots.
     """
-    n = t.size
+    n = len(t)
     if n < 2:
         return np.zeros(n)
-    h = np.diff(t)
-    delta = np.diff(v) / h
+    tl, vl = np.asarray(t, dtype=float).tolist(), np.asarray(v, dtype=float).tolist()
+    h = [b - a for a, b in zip(tl, tl[1:])]
+    delta = [(b - a) / hk for a, b, hk in zip(vl, vl[1:], h)]
     if n == 2:
         return np.array([delta[0], delta[0]])
-    d = np.zeros(n)
-    same_sign = delta[:-1] * delta[1:] > 0
-    w1 = 2 * h[1:] + h[:-1]
-    w2 = h[1:] + 2 * h[:-1]
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        harmonic = (w1 + w2) / (w1 / delta[:-1] + w2 / delta[1:])
-    d[1:-1] = np.where(same_sign, harmonic, 0.0)
+    d = [0.0] * n
+    for k in range(1, n - 1):
+        m0, m1 = delta[k - 1], delta[k]
+        if m0 * m1 > 0:  # same sign: the weighted harmonic mean
+            w1 = 2 * h[k] + h[k - 1]
+            w2 = h[k] + 2 * h[k - 1]
+            d[k] = (w1 + w2) / (w1 / m0 + w2 / m1)
     d[0] = _end_slope(h[0], h[1], delta[0], delta[1])
     d[-1] = _end_slope(h[-1], h[-2], delta[-1], delta[-2])
-    return d
+    return np.array(d)
+
+
+def _sign(value: float) -> int:
+    return (value > 0) - (value < 0)
 
 
 def _end_slope(h0: float, h1: float, m0: float, m1: float) -> float:
     d = ((2 * h0 + h1) * m0 - h0 * m1) / (h0 + h1)
-    if np.sign(d) != np.sign(m0):
+    if _sign(d) != _sign(m0):
         return 0.0
-    if np.sign(m0) != np.sign(m1) and abs(d) > abs(3 * m0):
+    if _sign(m0) != _sign(m1) and abs(d) > abs(3 * m0):
         return 3 * m0
     return float(d)
 
@@ -67,15 +75,18 @@ def interpolate(knots: ArrayLike, values: ArrayLike, where: ArrayLike, smooth: b
     """
     t = np.asarray(knots, dtype=float)
     v = np.asarray(values, dtype=float)
-    at = np.clip(np.asarray(where, dtype=float), t[0], t[-1])
+    at = np.minimum(np.maximum(np.asarray(where, dtype=float), t[0]), t[-1])
     if not smooth or t.size < 3:
         return np.interp(at, t, v)
     d = pchip_slopes(t, v)
-    i = np.clip(np.searchsorted(t, at, side="right") - 1, 0, t.size - 2)
-    h = t[i + 1] - t[i]
-    s = (at - t[i]) / h
-    h00 = (1 + 2 * s) * (1 - s) ** 2
-    h10 = s * (1 - s) ** 2
+    i = np.searchsorted(t, at, side="right") - 1
+    np.minimum(np.maximum(i, 0, out=i), t.size - 2, out=i)
+    t0 = t[i]
+    h = t[i + 1] - t0
+    s = (at - t0) / h
+    r = 1 - s
+    h00 = (1 + 2 * s) * r**2
+    h10 = s * r**2
     h01 = s * s * (3 - 2 * s)
     h11 = s * s * (s - 1)
     return h00 * v[i] + h10 * h * d[i] + h01 * v[i + 1] + h11 * h * d[i + 1]

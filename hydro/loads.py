@@ -224,11 +224,24 @@ class ShellPanels:
     area : (P,) m^2
     centroid : (P, 3) m (y = 0 for mirrored pairs)
     surface : (P,) str, one of "bottom", "sides", "ends"
+    surface_area : area of each surface (m^2), by name
+    surface_moment : (3,) each surface's area times its centroid (m^3), by name
     """
 
     area: FloatArray
     centroid: FloatArray
     surface: NDArray[np.str_] = field(repr=False)
+    surface_area: dict[str, float] = field(repr=False)
+    surface_moment: dict[str, FloatArray] = field(repr=False)
+
+    def covering(self, surfaces: tuple[str, ...]) -> tuple[float, FloatArray]:
+        """Area (m^2) and centroid (3,) of the named surfaces (zeros when no area)."""
+        chosen = [k for k in SURFACES if k in surfaces]
+        area = float(sum(self.surface_area[k] for k in chosen))
+        if not area > 0:
+            return 0.0, np.zeros(3)
+        moment = np.sum([self.surface_moment[k] for k in chosen], axis=0)
+        return area, moment / area
 
 
 def water_density(value: str | float) -> float:
@@ -264,32 +277,51 @@ def shell_panels(stations: Stations) -> ShellPanels:
     of a blunt hull (transoms) are "ends".
     """
     halves = stations.half_sections
-    n = len(halves[0])
-    if any(len(h) != n for h in halves):
-        n = 48
-        halves = tuple(_resample_girth(h, n) for h in halves)
+    stack = stations.stack
+    if stack is None:
+        n = len(halves[0])
+        if any(len(h) != n for h in halves):
+            n = 48
+            halves = tuple(_resample_girth(h, n) for h in halves)
+        stack = np.stack(halves)
     x = stations.x
-    stack = stations.stack if stations.stack is not None else np.stack(halves)
-    pts = np.concatenate([np.broadcast_to(x[:, None, None], (x.size, n, 1)), stack], axis=2)
-    a, b = pts[:-1], pts[1:]
-    tris = ((a[:, :-1], b[:, :-1], b[:, 1:]), (a[:, :-1], b[:, 1:], a[:, 1:]))
-    areas, cents, kinds = [], [], []
-    for p, q, r in tris:
-        nrm = np.cross(q - p, r - p).reshape(-1, 3)
-        areas.append(np.linalg.norm(nrm, axis=1))  # twice the triangle: both sides
-        cents.append(((p + q + r) / 3.0).reshape(-1, 3) * [1.0, 0.0, 1.0])
-        kinds.append(np.where(np.abs(nrm[:, 2]) >= np.abs(nrm[:, 1]), "bottom", "sides"))
+    n_st, n = stack.shape[:2]
+    # every quad between stations i, i + 1 and points j, j + 1 as two triangles
+    # (a, b, c) and (a, c, d): a = (i, j), b = (i + 1, j), c = (i + 1, j + 1), d = (i, j + 1)
+    px = np.broadcast_to(x[:, None], (n_st, n))
+    py, pz = stack[:, :, 0], stack[:, :, 1]
+    corners = [(p[:-1, :-1], p[1:, :-1], p[1:, 1:], p[:-1, 1:]) for p in (px, py, pz)]
+    (ax, bx, cx, dx), (ay, by, cy, dy), (az, bz, cz, dz) = corners
+    areas, cents, bottom = [], [], []
+    for (qx, qy, qz), (rx, ry, rz) in (((bx, by, bz), (cx, cy, cz)), ((cx, cy, cz), (dx, dy, dz))):
+        ux, uy, uz = qx - ax, qy - ay, qz - az
+        vx, vy, vz = rx - ax, ry - ay, rz - az
+        nx, ny, nz = uy * vz - uz * vy, uz * vx - ux * vz, ux * vy - uy * vx
+        areas.append(np.sqrt(nx * nx + ny * ny + nz * nz).ravel())  # twice: both sides
+        cents.append(np.stack([(ax + qx + rx) / 3.0, np.zeros_like(ax), (az + qz + rz) / 3.0], -1))
+        bottom.append((np.abs(nz) >= np.abs(ny)).ravel())
+    kind = np.where(np.concatenate(bottom), 0, 1)
+    centroid = np.concatenate([c.reshape(-1, 3) for c in cents])
+    ends = []
     for end in (0, x.size - 1):
-        h = halves[end]
+        h = stack[end]
         ring = np.vstack([h, h[::-1] * [-1.0, 1.0]])  # closed: ends where it began
         y0, z0, y1, z1 = ring[:-1, 0], ring[:-1, 1], ring[1:, 0], ring[1:, 1]
         crossp = y0 * z1 - y1 * z0
         area = 0.5 * crossp.sum()
         if area > 1e-12:
-            areas.append(np.array([area]))
-            cents.append(np.array([[x[end], 0.0, ((z0 + z1) * crossp).sum() / (6 * area)]]))
-            kinds.append(np.array(["ends"]))
-    return ShellPanels(np.concatenate(areas), np.vstack(cents), np.concatenate(kinds))
+            ends.append((area, (x[end], 0.0, ((z0 + z1) * crossp).sum() / (6 * area))))
+    area = np.concatenate(areas + [np.array([a for a, _ in ends])])
+    centroid = np.vstack([centroid, np.array([c for _, c in ends]).reshape(-1, 3)])
+    kind = np.concatenate([kind, np.full(len(ends), 2)])
+    surface_area, surface_moment = {}, {}
+    for k, name in enumerate(SURFACES):
+        on = kind == k
+        surface_area[name] = float(area[on].sum())
+        surface_moment[name] = area[on] @ centroid[on]
+    return ShellPanels(
+        area, centroid, np.array(SURFACES)[kind], surface_area, surface_moment
+    )
 
 
 def _free_surface(stations: Stations, level: float) -> tuple[FloatArray, int]:
@@ -384,13 +416,8 @@ def weight_build_up(
     if loads.materials:
         panels = panels or shell_panels(stations)
         for m in loads.materials:
-            sel = np.isin(panels.surface, m.surfaces)
-            area = float(panels.area[sel].sum())
+            area, cen = panels.covering(m.surfaces)
             mass = m.areal_density * m.layers * loads.wet_factor * area
-            if area > 0:
-                cen = panels.area[sel] @ panels.centroid[sel] / area
-            else:
-                cen = np.zeros(3)
             lines.append(WeightLine(m.name, "material", mass, *map(float, cen)))
     fs_moment = 0.0
     pieces = 0

@@ -138,3 +138,13 @@ def test_imperial_unit_factors():
 
     assert M_PER_IN == 0.0254
     assert KG_PER_LB == 0.45359237
+
+
+def test_a_surface_named_twice_counts_once():
+    st = box(3.0, 1.0, 0.5, stations=7)
+    once = weight_build_up(Loads(materials=(Material("board", 0.9, 1, ("sides",)),)), st, 1000.0)
+    twice = weight_build_up(
+        Loads(materials=(Material("board", 0.9, 1, ("sides", "sides")),)), st, 1000.0
+    )
+    assert twice.mass == pytest.approx(0.9 * 2 * 3.0 * 0.5)
+    assert (twice.mass, twice.kg) == pytest.approx((once.mass, once.kg))
