@@ -91,6 +91,10 @@ def _widened(design: Design, by: float) -> Design:
     ids=["canoe", "punt", "trimmed raft"],
 )
 def test_a_warm_start_gives_the_same_figures(design):
+    """The same solutions at every heel; the refined features agree to far below what is
+    shown (a warm start also solves angles around where the features were, so the top
+    and the crossings are refined from other samples: the same to 1e-3 and 1e-5 degree,
+    the largest arm to 0.1 micrometre)."""
     previous = analyse(design)
     for by in (0.004, 0.012, -0.02):
         moved = _widened(design, by)
@@ -98,8 +102,11 @@ def test_a_warm_start_gives_the_same_figures(design):
         np.testing.assert_allclose(warm.curve.gz, cold.curve.gz, rtol=0, atol=1e-8)
         np.testing.assert_allclose(warm.curve.trim_deg, cold.curve.trim_deg, rtol=0, atol=1e-5)
         assert warm.hydrostatics.gm == pytest.approx(cold.hydrostatics.gm, abs=1e-9)
-        assert warm.curve.max_gz_deg == pytest.approx(cold.curve.max_gz_deg, abs=1e-6)
-        assert warm.curve.gunwale_immersion_deg == pytest.approx(cold.curve.gunwale_immersion_deg, abs=1e-7)
+        assert warm.curve.max_gz == pytest.approx(cold.curve.max_gz, abs=1e-7)
+        assert warm.curve.max_gz_deg == pytest.approx(cold.curve.max_gz_deg, abs=1e-3)
+        for crossing in ("gunwale_immersion_deg", "avs_deg"):
+            x, y = getattr(warm.curve, crossing), getattr(cold.curve, crossing)
+            assert x == pytest.approx(y, abs=1e-5), crossing
         previous = warm
 
 

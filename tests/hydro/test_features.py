@@ -89,3 +89,60 @@ def test_the_figures_do_not_depend_on_the_heel_step(name):
         coarse = analyse(design, heel_step_deg=step)
         assert coarse.curve.heel_deg.size < full.curve.heel_deg.size
         assert_same_figures(coarse, full)
+
+
+def _widened(design, by):
+    """The design with its widest plan point moved out by ``by`` (m), as a drag does."""
+    hull = design.hull
+    i = max(range(len(hull.plan.points)), key=lambda k: hull.plan.points[k][1])
+    x, b = hull.plan.points[i]
+    return replace(design, hull=replace(hull, plan=hull.plan.with_point(i, (x, b + by))))
+
+
+@pytest.mark.parametrize("name", ["canoe", "raft", "canoe, 20 kg to port"])
+def test_a_steady_drag_finds_its_features_already_bracketed(name, monkeypatch):
+    """From the third frame on, the angles solved around where the features are expected
+    bracket them: refinement needs no solve of its own, and the figures stay the full
+    curve's."""
+    import hydro.stability as stability
+
+    solves = []
+    real = stability.curve_points
+
+    def counted(*args, **kwargs):
+        solves.append(1)
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(stability, "curve_points", counted)
+    design = DESIGNS[name]
+    previous = analyse(design, heel_step_deg=3.0)
+    for k in range(1, 6):
+        frame = _widened(design, 0.002 * k)
+        solves.clear()
+        previous = analyse(frame, start=previous, heel_step_deg=3.0)
+        if k >= 2:
+            assert len(solves) == 1, f"frame {k}"
+        assert_same_figures(previous, analyse(frame))
+
+
+@pytest.mark.parametrize("name", ["canoe", "punt, 32 kg to starboard"])
+def test_features_expected_in_the_wrong_place_are_still_found(name):
+    """A drag that jumps (or a start from another design) expects the features where they
+    are not: refinement goes on from the samples it has, to the same figures."""
+    from hydro.stability import FeatureTrack
+
+    design = DESIGNS[name]
+    plain = analyse(design, heel_step_deg=3.0)
+    curve = plain.curve
+    side = curve.side
+    now = {"peak": side * curve.max_gz_deg, "avs": side * curve.avs_deg,
+           "gunwale": side * curve.gunwale_immersion_deg}
+    if curve.list_deg not in (None, 0.0):
+        now["list"] = side * curve.list_deg
+    for shift in (0.03, -0.4, 2.5):
+        wrong = FeatureTrack(side, {k: v + shift for k, v in now.items()}, {})
+        moved = replace(curve, track=wrong)
+        warm = analyse(design, start=replace(plain, curve=moved), heel_step_deg=3.0)
+        assert_same_figures(warm, analyse(design))
+        for key in ("max_gz_deg", "avs_deg", "gunwale_immersion_deg", "list_deg"):
+            assert getattr(warm.curve, key) == pytest.approx(getattr(curve, key), abs=1e-3)
