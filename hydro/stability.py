@@ -11,7 +11,7 @@ station spacing h).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from enum import Enum
 from typing import TypeVar
 
@@ -45,6 +45,9 @@ __all__ = [
 FloatArray = NDArray[np.float64]
 
 _Feature = TypeVar("_Feature", Crossing, Peak)
+
+#: (h, tau) at each heel: where to start the solver, or where it found the boat.
+Waterlines = tuple[FloatArray, FloatArray]
 
 #: Standard gravity (m/s^2), 3rd CGPM 1901.
 G_STANDARD = 9.80665
@@ -113,7 +116,7 @@ TRACK_PATTERN = {
 }
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class FeatureTrack:
     """Where a curve's refined features lie, and where they lay on the curve its solve
     started from (a drag's previous frame), to place the next frame's extra angles.
@@ -123,11 +126,21 @@ class FeatureTrack:
     side : the listing side the angles are measured towards (+1 starboard, -1 port)
     now, before : refined angle (degrees, towards ``side``) of each feature, by name
         ("list", "peak", "avs", "gunwale"); ``before`` is empty without a previous frame
+    heel_deg, h, tau : (E,) the extra angles solved beside the curve's (signed heel) and
+        their waterlines (as ``StabilityCurve.waterlines``), to start the next frame's
+    grid_before : the waterlines the previous frame found at this curve's angles, and
+    upright_before : its upright (h, tau); with this frame's they give the next frame's
+        starts, carried on at the same pace (None: no previous frame)
     """
 
     side: int
     now: dict[str, float]
     before: dict[str, float]
+    heel_deg: FloatArray = field(default_factory=lambda: np.empty(0))
+    h: FloatArray = field(default_factory=lambda: np.empty(0))
+    tau: FloatArray = field(default_factory=lambda: np.empty(0))
+    grid_before: Waterlines | None = None
+    upright_before: tuple[float, float] | None = None
 
     def expected(self) -> dict[str, float]:
         """Each feature's angle on the next frame: carried on at the pace of the last
@@ -481,8 +494,6 @@ class _Points:
 #: of the hull's depth (h, plus the trim's change over the length): else it jumped.
 NEAR_START = 0.1
 
-#: (h, tau) at each heel: where to start the solver, or where it found the boat.
-Waterlines = tuple[FloatArray, FloatArray]
 
 
 def _starboard_points(
@@ -646,18 +657,27 @@ def _extra_angles(heel_deg: FloatArray, side: int, previous: FeatureTrack | None
     return np.asarray(wanted[keep], dtype=float)
 
 
-def _with_starts(heel_deg: FloatArray, waterlines: Waterlines, angles: FloatArray) -> Waterlines:
+def _with_starts(
+    heel_deg: FloatArray, waterlines: Waterlines, angles: FloatArray, previous: FeatureTrack | None
+) -> Waterlines:
     """``waterlines`` (at ``heel_deg``, ascending) followed by starts at ``angles``,
-    interpolated between the solved ones (NaN if fewer than two are)."""
+    interpolated between the solved ones and the extra angles of ``previous`` (NaN if
+    fewer than two are solved)."""
     h, tau = waterlines
-    ok = np.isfinite(h) & np.isfinite(tau)
+    at, h_at, tau_at = heel_deg, h, tau
+    if previous is not None and previous.heel_deg.size:
+        at = np.concatenate([heel_deg, previous.heel_deg])
+        h_at, tau_at = np.concatenate([h, previous.h]), np.concatenate([tau, previous.tau])
+        order = np.argsort(at, kind="stable")
+        at, h_at, tau_at = at[order], h_at[order], tau_at[order]
+    ok = np.isfinite(h_at) & np.isfinite(tau_at)
     if np.count_nonzero(ok) < 2:
         more = np.full(angles.size, np.nan)
         return np.concatenate([h, more]), np.concatenate([tau, more])
-    at = heel_deg[ok]
+    at = at[ok]
     return (
-        np.concatenate([h, np.interp(angles, at, h[ok])]),
-        np.concatenate([tau, np.interp(angles, at, tau[ok])]),
+        np.concatenate([h, np.interp(angles, at, h_at[ok])]),
+        np.concatenate([tau, np.interp(angles, at, tau_at[ok])]),
     )
 
 
@@ -707,16 +727,16 @@ def righting_curve(
     n_grid = heel_deg.size
     if extra.size:
         if waterlines is not None:
-            waterlines = _with_starts(heel_deg, waterlines, side * extra)
+            waterlines = _with_starts(heel_deg, waterlines, side * extra, previous)
         both = curve_points(
             table, weights, rho, base, np.concatenate([heel_deg, side * extra]), free_trim,
             waterlines,
         )
         pts, more = both.part(slice(0, n_grid)), both.part(slice(n_grid, None))
-        extra_values = (side * more.gz, more.low_freeboard)
     else:
         pts = curve_points(table, weights, rho, base, heel_deg, free_trim, waterlines)
-        extra_values = (extra, extra)
+        more = pts.part(slice(n_grid, None))
+    extra_values = (side * more.gz, more.low_freeboard)
     gz, conv = pts.gz, pts.converged
     phi = np.radians(heel_deg)
     c, s = np.cos(phi), np.sin(phi)
@@ -815,7 +835,8 @@ def righting_curve(
 
     now = {k: v if isinstance(v, float) else v[0] for k, v in found.items() if v is not None}
     same_side = previous is not None and previous.side == side
-    track = FeatureTrack(side, now, previous.now if previous is not None and same_side else {})
+    before = previous.now if previous is not None and same_side else {}
+    track = FeatureTrack(side, now, before, side * extra, more.h, more.tau)
 
     list_deg = signed(list_a)
     return StabilityCurve(
@@ -883,6 +904,17 @@ def _resampled(curve: StabilityCurve, angles: FloatArray) -> Waterlines | None:
     return np.interp(angles, at, h[ok]), np.interp(angles, at, tau[ok])
 
 
+def _carried_on(now: Waterlines, before: Waterlines) -> Waterlines:
+    """Waterlines one more frame on at the pace from ``before`` to ``now`` (a drag moves
+    steadily): the next frame's starts; ``now`` where ``before`` does not match."""
+    if before[0].shape != now[0].shape:
+        return now
+    with np.errstate(invalid="ignore"):
+        h, tau = 2 * now[0] - before[0], 2 * now[1] - before[1]
+    ok = np.isfinite(h) & np.isfinite(tau)
+    return np.where(ok, h, now[0]), np.where(ok, tau, now[1])
+
+
 def analyse_table(
     table: SectionTable,
     weights: WeightSummary,
@@ -900,14 +932,22 @@ def analyse_table(
     """
     capacity = float(table.totals[0] @ table.weights) * rho
     near = start.hydrostatics if start is not None else None
-    base = upright(table, weights, rho, free_trim, None if near is None else (near.h, near.tau))
+    previous = start.curve if start is not None else None
+    track = None if previous is None else previous.track
+    here = None if near is None else (near.h, near.tau)
+    before = None if track is None else track.upright_before
+    ahead = None if here is None or before is None else (2 * here[0] - before[0], 2 * here[1] - before[1])
+    base = upright(table, weights, rho, free_trim, ahead or here)
     if base is None:
         return Analysis(Status.SINKS, weights, None, None, capacity_kg=capacity)
     angles = both_sides(heel_deg) if is_asymmetric(weights) else np.asarray(heel_deg, float)
-    previous = start.curve if start is not None else None
     warm = None if previous is None else _resampled(previous, angles)
-    track = None if previous is None else previous.track
-    curve = righting_curve(table, weights, rho, base, angles, free_trim, warm, track)
+    starts = warm
+    if warm is not None and track is not None and track.grid_before is not None:
+        starts = _carried_on(warm, track.grid_before)
+    curve = righting_curve(table, weights, rho, base, angles, free_trim, starts, track)
+    if curve.track is not None:
+        curve = replace(curve, track=replace(curve.track, grid_before=warm, upright_before=here))
     if curve.list_deg is None:
         status = Status.CAPSIZES
     elif base.min_freeboard <= 0:
