@@ -118,41 +118,53 @@ class _Residual:
     j12: FloatArray
     j21: FloatArray
     j22: FloatArray
+    cut: Cut
+
+
+#: The fields of a :class:`Cut`.
+CUT_FIELDS = ("area", "q_xi", "q_eta", "breadth", "breadth_m1", "breadth_m2")
 
 
 def _residual(
     table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
-    h: FloatArray, tau: FloatArray,
+    h: FloatArray, tau: FloatArray, full: bool = False,
 ) -> _Residual:
-    x, w, wx = table.x, table.weights, table.weights_x
+    """The residuals and their Jacobian, with the cut they come from (every field if
+    ``full``)."""
     hs = _levels(table, h, tau)
-    c = cut(table, frame, hs, full=False)
-    vol = c.area @ w
-    q_eta = c.q_eta @ w
-    bx = c.breadth * x
-    bh = c.breadth * hs
-    aw = c.breadth @ w
-    sx = bx @ w
+    c = cut(table, frame, hs, full=full)
+    # every integral along the hull in one product: of the area, q_eta, breadth,
+    # breadth x, breadth hs and breadth hs x, against the weights of f and of x f
+    parts = np.empty((6,) + hs.shape)
+    parts[0], parts[1], parts[2] = c.area, c.q_eta, c.breadth
+    np.multiply(c.breadth, table.x, out=parts[3])
+    np.multiply(c.breadth, hs, out=parts[4])
+    np.multiply(parts[4], table.x, out=parts[5])
+    sums = np.matmul(parts, table.weight_pair).transpose(0, 2, 1)
+    (vol, vol_x), (q_eta, _), (aw, aw_x), (sx, bx_x), (bh, _), (bhx, _) = sums
     moment = q_eta - eta_g * vol
     return _Residual(
         f1=vol - volume,
-        f2=c.area @ wx - x_g * vol + tau * moment,
+        f2=vol_x - x_g * vol + tau * moment,
         j11=aw,
         j12=sx,
-        j21=c.breadth @ wx - x_g * aw + tau * (bh @ w - eta_g * aw),
-        j22=bx @ wx - x_g * sx + moment + tau * ((bh * x) @ w - eta_g * sx),
+        j21=aw_x - x_g * aw + tau * (bh - eta_g * aw),
+        j22=bx_x - x_g * sx + moment + tau * (bhx - eta_g * sx),
+        cut=c,
     )
 
 
 def _joint_newton(
     table: SectionTable, frame: HeelFrame, volume: float, x_g: float, eta_g: FloatArray,
     h: FloatArray, tau: FloatArray, iterations: int,
-) -> tuple[FloatArray, FloatArray]:
+) -> tuple[FloatArray, FloatArray, Cut]:
     """Newton steps on (h, tau) for every angle still moving; the set shrinks as they settle.
 
     An angle leaves when its residual is within tolerance, when its last step was tiny
     (quadratic convergence puts it far inside; the caller verifies), or when its
     Jacobian is singular (the waterline left the hull; the caller's safe path takes it).
+    Returns h, tau and the cut there (every field): an angle that did not move after its
+    last evaluation keeps that evaluation's cut, the others are cut again.
     """
     h, tau = h.copy(), tau.copy()
     length = float(table.x[-1] - table.x[0])
@@ -161,18 +173,25 @@ def _joint_newton(
     tol_v, tol_m = TOLERANCE * volume, TOLERANCE * volume * length
     active = np.arange(h.size)
     sub = frame
+    at: Cut | None = None  # the cut of every angle at its last evaluation
+    current = np.zeros(h.size, dtype=bool)  # not moved since
     for _ in range(iterations):
         ha, ta = h[active], tau[active]
-        r = _residual(table, sub, volume, x_g, eta_g[active], ha, ta)
+        r = _residual(table, sub, volume, x_g, eta_g[active], ha, ta, full=True)
         settled = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
         det = r.j11 * r.j22 - r.j12 * r.j21
         good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
         safe = np.where(good, det, 1.0)
-        dh = np.clip((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh, max_dh)
-        dtau = np.clip((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau, max_dtau)
+        dh = np.minimum(np.maximum((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh), max_dh)
+        dtau = np.minimum(np.maximum((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau), max_dtau)
         move = good & ~settled
         h[active] = np.where(move, ha + dh, ha)
         tau[active] = np.where(move, ta + dtau, ta)
+        if at is None:  # the first evaluation covers every angle
+            at, current = r.cut, ~move
+        else:
+            _put(at, active, r.cut)
+            current[active] = ~move
         tiny = (np.abs(dh) <= STEP_DONE * span) & (np.abs(dtau) * length <= STEP_DONE * span)
         keep = move & ~tiny
         if not keep.any():
@@ -180,7 +199,18 @@ def _joint_newton(
         if keep.sum() <= 0.5 * active.size:  # copying the rotated vertices pays off
             active = active[keep]
             sub = frame.take(active)
-    return h, tau
+    if at is None:
+        return h, tau, cut(table, frame, _levels(table, h, tau))
+    stale = np.flatnonzero(~current)
+    if stale.size:
+        _put(at, stale, cut(table, frame.take(stale), _levels(table, h[stale], tau[stale])))
+    return h, tau, at
+
+
+def _put(into: Cut, idx: NDArray[np.intp], part: Cut) -> None:
+    """Write the cut of some angles into the cut of all of them."""
+    for name in CUT_FIELDS:
+        getattr(into, name)[idx] = getattr(part, name)
 
 
 def _bracketed_trim(
@@ -262,8 +292,7 @@ def _settle(
     """The angles the fast pass left: restart from a waterline of the right volume at the
     starting trim (a safe 1-D solve), Newton again, then trim bracketing for the rest."""
     h, _ = waterline_for_trim(table, frame, volume, tau_start, h_start)
-    h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau_start, MAX_ITERATIONS)
-    c = cut(table, frame, _levels(table, h, tau), full=False)
+    h, tau, c = _joint_newton(table, frame, volume, x_g, eta_g, h, tau_start, MAX_ITERATIONS)
     ok = _accepted(table, frame, c, volume, x_g, eta_g, tau, tau_start)
     if not ok.all():
         j = np.flatnonzero(~ok)
@@ -302,8 +331,7 @@ def solve_equilibrium(
     tau_start = np.asarray(tau0, dtype=float)
     w, wx = table.weights, table.weights_x
     if free_trim:
-        h, tau = _joint_newton(table, frame, volume, x_g, eta_g, h, tau, FAST_ITERATIONS)
-        c = cut(table, frame, _levels(table, h, tau))
+        h, tau, c = _joint_newton(table, frame, volume, x_g, eta_g, h, tau, FAST_ITERATIONS)
         ok = _accepted(table, frame, c, volume, x_g, eta_g, tau, tau_start)
         if safeguard and not ok.all():
             idx = np.flatnonzero(~ok)
@@ -312,8 +340,7 @@ def solve_equilibrium(
                 np.asarray(h0, dtype=float)[idx], tau_start[idx],
             )
             h[idx], tau[idx], ok[idx] = h_s, t_s, ok_s
-            for name in ("area", "q_xi", "q_eta", "breadth", "breadth_m1", "breadth_m2"):
-                getattr(c, name)[idx] = getattr(c_s, name)
+            _put(c, idx, c_s)
     else:
         h, ok = waterline_for_trim(table, frame, volume, tau, h)
         c = cut(table, frame, _levels(table, h, tau))
@@ -372,7 +399,7 @@ def _with(eq: Equilibrium, i: int, one: Equilibrium) -> Equilibrium:
         values[i] = getattr(one, name)[0]
         fields[name] = values
     parts = {}
-    for name in ("area", "q_xi", "q_eta", "breadth", "breadth_m1", "breadth_m2"):
+    for name in CUT_FIELDS:
         values = getattr(eq.cut, name).copy()
         values[i] = getattr(one.cut, name)[0]
         parts[name] = values

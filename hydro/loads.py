@@ -286,22 +286,24 @@ def shell_panels(stations: Stations) -> ShellPanels:
         stack = np.stack(halves)
     x = stations.x
     n_st, n = stack.shape[:2]
+    pts = np.empty((n_st, n, 3))
+    pts[:, :, 0] = x[:, None]
+    pts[:, :, 1:] = stack
     # every quad between stations i, i + 1 and points j, j + 1 as two triangles
-    # (a, b, c) and (a, c, d): a = (i, j), b = (i + 1, j), c = (i + 1, j + 1), d = (i, j + 1)
-    px = np.broadcast_to(x[:, None], (n_st, n))
-    py, pz = stack[:, :, 0], stack[:, :, 1]
-    corners = [(p[:-1, :-1], p[1:, :-1], p[1:, 1:], p[:-1, 1:]) for p in (px, py, pz)]
-    (ax, bx, cx, dx), (ay, by, cy, dy), (az, bz, cz, dz) = corners
-    areas, cents, bottom = [], [], []
-    for (qx, qy, qz), (rx, ry, rz) in (((bx, by, bz), (cx, cy, cz)), ((cx, cy, cz), (dx, dy, dz))):
-        ux, uy, uz = qx - ax, qy - ay, qz - az
-        vx, vy, vz = rx - ax, ry - ay, rz - az
-        nx, ny, nz = uy * vz - uz * vy, uz * vx - ux * vz, ux * vy - uy * vx
-        areas.append(np.sqrt(nx * nx + ny * ny + nz * nz).ravel())  # twice: both sides
-        cents.append(np.stack([(ax + qx + rx) / 3.0, np.zeros_like(ax), (az + qz + rz) / 3.0], -1))
-        bottom.append((np.abs(nz) >= np.abs(ny)).ravel())
-    kind = np.where(np.concatenate(bottom), 0, 1)
-    centroid = np.concatenate([c.reshape(-1, 3) for c in cents])
+    # (a, b, c) and (a, c, d): a = (i, j), b = (i + 1, j), c = (i + 1, j + 1), d = (i, j + 1);
+    # both at once: (a, q, r) with q = (b, c) and r = (c, d)
+    a = pts[:-1, :-1]
+    c = pts[1:, 1:]
+    q = np.stack([pts[1:, :-1], c])
+    r = np.stack([c, pts[:-1, 1:]])
+    u, v = q - a, r - a
+    ux, uy, uz = u[..., 0], u[..., 1], u[..., 2]
+    vx, vy, vz = v[..., 0], v[..., 1], v[..., 2]
+    nx, ny, nz = uy * vz - uz * vy, uz * vx - ux * vz, ux * vy - uy * vx
+    triangles = np.sqrt(nx * nx + ny * ny + nz * nz).ravel()  # twice the area: both sides
+    centroid = ((a + q + r) / 3.0).reshape(-1, 3)
+    centroid[:, 1] = 0.0
+    kind = np.where((np.abs(nz) >= np.abs(ny)).ravel(), 0, 1)
     ends = []
     for end in (0, x.size - 1):
         h = stack[end]
@@ -311,8 +313,8 @@ def shell_panels(stations: Stations) -> ShellPanels:
         area = 0.5 * crossp.sum()
         if area > 1e-12:
             ends.append((area, (x[end], 0.0, ((z0 + z1) * crossp).sum() / (6 * area))))
-    area = np.concatenate(areas + [np.array([a for a, _ in ends])])
-    centroid = np.vstack([centroid, np.array([c for _, c in ends]).reshape(-1, 3)])
+    area = np.concatenate([triangles, [e for e, _ in ends]])
+    centroid = np.vstack([centroid, np.array([at for _, at in ends]).reshape(-1, 3)])
     kind = np.concatenate([kind, np.full(len(ends), 2)])
     surface_area, surface_moment = {}, {}
     for k, name in enumerate(SURFACES):

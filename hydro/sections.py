@@ -85,6 +85,11 @@ class SectionTable:
         """(3, S) area, integral of y dA and of z dA of each whole section."""
         return self.prefix[:, :, -1]
 
+    @cached_property
+    def weight_pair(self) -> FloatArray:
+        """(S, 2) ``weights`` and ``weights_x`` side by side: both integrals in one product."""
+        return np.column_stack([self.weights, self.weights_x])
+
 
 @dataclass(frozen=True, eq=False)
 class HeelFrame:
