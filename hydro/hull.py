@@ -233,7 +233,11 @@ def _drop_repeats(ring: FloatArray) -> FloatArray:
     return ring[keep]
 
 
+@lru_cache(maxsize=64)
 def _check_curve(curve: Curve, name: str, min_points: int = 2) -> FloatArray:
+    """The curve's points (read-only) once checked (raises ShapeError).
+
+    Cached on the curve itself: a drag moves one curve, the others are checked once."""
     p = np.asarray(curve.points, dtype=float)
     if p.ndim != 2 or p.shape[1] != 2 or len(p) < min_points:
         raise ShapeError(f"the {name} needs at least {min_points} points")
@@ -241,14 +245,15 @@ def _check_curve(curve: Curve, name: str, min_points: int = 2) -> FloatArray:
         raise ShapeError(f"the {name} has a point that is not a finite number")
     if np.any(np.diff(p[:, 0]) <= 0):
         raise ShapeError(f"the {name} points must run from aft to forward without going back")
+    p.flags.writeable = False
     return p
 
 
 def validate_sketch(sketch: HullSketch) -> None:
     """Raise :class:`ShapeError` with a plain message if the sketch is impossible."""
-    plan = _check_curve(sketch.plan, "plan outline")
-    keel = _check_curve(sketch.keel, "keel line")
-    sheer = _check_curve(sketch.sheer, "sheer line")
+    plan = _cached(_check_curve, sketch.plan, "plan outline")
+    keel = _cached(_check_curve, sketch.keel, "keel line")
+    sheer = _cached(_check_curve, sketch.sheer, "sheer line")
     if np.any(plan[:, 1] < 0):
         raise ShapeError("the plan outline has a negative half-breadth")
     if np.max(plan[:, 1]) <= 0:
@@ -259,12 +264,19 @@ def validate_sketch(sketch: HullSketch) -> None:
             raise ShapeError(f"the {name} must span the same length as the plan outline")
     if not 3 <= sketch.station_count <= 401:
         raise ShapeError("the station count must be between 3 and 401")
+    _cached(_check_depth, sketch.keel, sketch.sheer, float(x0), float(x1))
+    _cached(_checked_shapes, sketch.sections)
+
+
+@lru_cache(maxsize=16)
+def _check_depth(keel: Curve, sheer: Curve, x0: float, x1: float) -> None:
+    """Raise ShapeError unless the sheer is above the keel from x0 to x1 (cached on the
+    two curves: a drag of the plan leaves them as they were)."""
     xs = np.linspace(x0, x1, 201)
-    depth = sketch.sheer(xs) - sketch.keel(xs)
+    depth = sheer(xs) - keel(xs)
     if np.any(depth <= 0):
         bad = xs[np.argmin(depth)]
         raise ShapeError(f"the sheer is not above the keel near x = {bad:.3f} m")
-    _cached(_checked_shapes, sketch.sections)
 
 
 def _cached(function: Any, *key: Any) -> Any:
@@ -406,7 +418,17 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
         raise ShapeError("the station count must be between 2 and 1001")
     x0, x1 = sketch.x_range
     xs, uv = _cached(_station_shapes, sketch.sections, x0, x1, n)
-    return Stations(xs.copy(), tuple(_placed(sketch, uv, xs)), check_sections=False)
+    b, k, s = (_cached(_at_stations, c, x0, x1, n) for c in (sketch.plan, sketch.keel, sketch.sheer))
+    return Stations(xs.copy(), tuple(_place(uv, b, k, s)), check_sections=False)
+
+
+@lru_cache(maxsize=16)
+def _at_stations(curve: Curve, x0: float, x1: float, count: int) -> FloatArray:
+    """(count,) the curve at ``count`` stations from x0 to x1 (read-only; cached on the
+    curve: a drag moves one curve, the others keep their values)."""
+    values = curve(np.linspace(x0, x1, count))
+    values.flags.writeable = False
+    return values
 
 
 def first_crossed_outline(halves: FloatArray) -> int | None:
@@ -450,13 +472,18 @@ def _place_shapes(sketch: HullSketch, shapes: FloatArray, at: FloatArray, xs: Fl
 
 def _placed(sketch: HullSketch, uv: FloatArray, xs: FloatArray) -> FloatArray:
     """(n, m, 2) half sections (y, z): blended shapes ``uv`` scaled to the sketch at xs."""
-    b = np.maximum(sketch.plan(xs), 0.0)[:, None]
-    k = sketch.keel(xs)
-    d = sketch.sheer(xs) - k
+    return _place(uv, sketch.plan(xs), sketch.keel(xs), sketch.sheer(xs))
+
+
+def _place(uv: FloatArray, plan: FloatArray, keel: FloatArray, sheer: FloatArray) -> FloatArray:
+    """(n, m, 2) half sections (y, z): shapes ``uv`` scaled to the half-breadth ``plan``
+    and placed between the ``keel`` and ``sheer`` heights, (n,) each."""
+    b = np.maximum(plan, 0.0)[:, None]
+    d = sheer - keel
     halves = np.empty(uv.shape)
     np.multiply(uv[:, :, 0], b, out=halves[:, :, 0])
     np.multiply(uv[:, :, 1], d[:, None], out=halves[:, :, 1])
-    halves[:, :, 1] += k[:, None]
+    halves[:, :, 1] += keel[:, None]
     return halves
 
 

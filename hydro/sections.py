@@ -61,8 +61,6 @@ class SectionTable:
         by repeating the first vertex, so padding edges have zero length
     prefix : (3, S, V) cumulative body-frame contributions of edges 0 .. k-1 to
         (area, first moment about y = 0 i.e. integral of y dA, integral of z dA)
-    prefix_flat : (S * V, 3) the same, one row per vertex, for gathering
-    yz_flat : (S * V, 2) the vertices, one row each
     gunwale_y, gunwale_z : (S,) starboard gunwale point of each station
     keel_z : float, height of the lowest point of the hull
     """
@@ -74,8 +72,6 @@ class SectionTable:
     y: FloatArray
     z: FloatArray
     prefix: FloatArray
-    prefix_flat: FloatArray
-    yz_flat: FloatArray
     gunwale_y: FloatArray
     gunwale_z: FloatArray
     keel_z: float
@@ -84,6 +80,11 @@ class SectionTable:
     def totals(self) -> FloatArray:
         """(3, S) area, integral of y dA and of z dA of each whole section."""
         return self.prefix[:, :, -1]
+
+    @cached_property
+    def prefix_flat(self) -> FloatArray:
+        """(S * V, 3) ``prefix`` with one row per vertex, for gathering (numpy's cut)."""
+        return np.ascontiguousarray(self.prefix.reshape(3, -1).T)
 
     @cached_property
     def weight_pair(self) -> FloatArray:
@@ -234,8 +235,6 @@ def build_section_table(stations: Stations) -> SectionTable:
         y=y,
         z=z,
         prefix=prefix,
-        prefix_flat=np.ascontiguousarray(prefix.reshape(3, -1).T),
-        yz_flat=np.column_stack([y.ravel(), z.ravel()]),
         gunwale_y=gunwale[:, 0].copy(),
         gunwale_z=gunwale[:, 1].copy(),
         keel_z=stations.keel_z,

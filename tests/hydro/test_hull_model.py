@@ -106,3 +106,28 @@ def test_broken_offsets_files_are_refused(tmp_path, text, message):
     path.write_text(text)
     with pytest.raises(DesignFileError, match=re.escape(message)):
         read_offsets(path)
+
+
+def test_each_curve_moved_in_turn_places_the_stations_afresh():
+    """The curves a drag leaves alone keep their checked values; the one it moves is taken
+    anew: every station is what the curves give, whichever of them moved."""
+    from dataclasses import replace as changed
+
+    from hydro import load_design
+    from tests.paths import SAMPLES
+
+    sketch = load_design(SAMPLES / "paper-loon-canoe.json").hull
+    generate_stations(sketch)
+    for name, dz in (("plan", 0.02), ("keel", -0.01), ("sheer", 0.03), ("plan", -0.02)):
+        curve = getattr(sketch, name)
+        points = tuple((x, v + dz) for x, v in curve.points)
+        sketch = changed(sketch, **{name: changed(curve, points=points)})
+        st = generate_stations(sketch)
+        x = st.x
+        assert st.stack[:, -1, 0] == pytest.approx(np.maximum(sketch.plan(x), 0.0))
+        assert st.stack[:, 0, 1] == pytest.approx(sketch.keel(x))  # the shapes start at the keel
+        assert st.stack[:, -1, 1] == pytest.approx(sketch.sheer(x))
+    low = tuple((x, -1.0) for x, _ in sketch.sheer.points)
+    for _ in range(2):  # an impossible sheer is refused every time, not once
+        with pytest.raises(ShapeError, match="sheer is not above the keel"):
+            generate_stations(changed(sketch, sheer=changed(sketch.sheer, points=low)))
