@@ -304,25 +304,26 @@ def shell_panels(stations: Stations) -> ShellPanels:
     centroid = ((a + q + r) / 3.0).reshape(-1, 3)
     centroid[:, 1] = 0.0
     kind = np.where((np.abs(nz) >= np.abs(ny)).ravel(), 0, 1)
-    ends = []
-    for end in (0, x.size - 1):
-        h = stack[end]
-        ring = np.vstack([h, h[::-1] * [-1.0, 1.0]])  # closed: ends where it began
-        y0, z0, y1, z1 = ring[:-1, 0], ring[:-1, 1], ring[1:, 0], ring[1:, 1]
-        crossp = y0 * z1 - y1 * z0
-        area = 0.5 * crossp.sum()
-        if area > 1e-12:
-            ends.append((area, (x[end], 0.0, ((z0 + z1) * crossp).sum() / (6 * area))))
-    area = np.concatenate([triangles, [e for e, _ in ends]])
-    centroid = np.vstack([centroid, np.array([at for _, at in ends]).reshape(-1, 3)])
-    kind = np.concatenate([kind, np.full(len(ends), 2)])
-    surface_area, surface_moment = {}, {}
-    for k, name in enumerate(SURFACES):
-        on = kind == k
-        surface_area[name] = float(area[on].sum())
-        surface_moment[name] = area[on] @ centroid[on]
+    # the end sections, closed polygons (ending where they began): transoms if they
+    # have area
+    h = stack[[0, -1]]
+    ring = np.concatenate([h, h[:, ::-1] * [-1.0, 1.0]], axis=1)
+    y0, z0, y1, z1 = ring[:, :-1, 0], ring[:, :-1, 1], ring[:, 1:, 0], ring[:, 1:, 1]
+    crossp = y0 * z1 - y1 * z0
+    end_area = 0.5 * crossp.sum(axis=1)
+    blunt = end_area > 1e-12
+    end_z = ((z0 + z1) * crossp).sum(axis=1)[blunt] / (6 * end_area[blunt])
+    ends = np.column_stack([x[[0, -1]][blunt], np.zeros(end_z.size), end_z])
+    area = np.concatenate([triangles, end_area[blunt]])
+    centroid = np.vstack([centroid, ends])
+    kind = np.concatenate([kind, np.full(end_z.size, 2)])
+    # each surface's area and moment in one product: its panels' areas, zeros elsewhere
+    on = np.where(kind == np.arange(len(SURFACES))[:, None], area, 0.0)
+    totals, moments = on.sum(axis=1), on @ centroid
     return ShellPanels(
-        area, centroid, np.array(SURFACES)[kind], surface_area, surface_moment
+        area, centroid, np.array(SURFACES)[kind],
+        {name: float(totals[k]) for k, name in enumerate(SURFACES)},
+        {name: moments[k] for k, name in enumerate(SURFACES)},
     )
 
 
