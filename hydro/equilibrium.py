@@ -171,7 +171,7 @@ def _joint_newton(
     span = float(np.max(frame.eta_high - frame.eta_low))
     max_dh, max_dtau = 0.25 * span, 0.25 * span / length
     tol_v, tol_m = TOLERANCE * volume, TOLERANCE * volume * length
-    active = np.arange(h.size)
+    active: NDArray[np.intp] | slice = slice(None)  # every angle, until the set shrinks
     sub = frame
     at: Cut | None = None  # the cut of every angle at its last evaluation
     current = np.zeros(h.size, dtype=bool)  # not moved since
@@ -187,7 +187,7 @@ def _joint_newton(
         move = good & ~settled
         h[active] = np.where(move, ha + dh, ha)
         tau[active] = np.where(move, ta + dtau, ta)
-        if at is None:  # the first evaluation covers every angle
+        if at is None or isinstance(active, slice):  # every angle evaluated
             at, current = r.cut, ~move
         else:
             _put(at, active, r.cut)
@@ -196,10 +196,10 @@ def _joint_newton(
         keep = move & ~tiny
         if not keep.any():
             break
-        if keep.sum() <= 0.5 * active.size:  # copying the rotated vertices pays off
-            active = active[keep]
+        if keep.sum() <= 0.5 * keep.size:  # copying the rotated vertices pays off
+            active = np.flatnonzero(keep) if isinstance(active, slice) else active[keep]
             sub = frame.take(active)
-    if at is None:
+    if at is None:  # no iteration at all
         return h, tau, cut(table, frame, _levels(table, h, tau))
     stale = np.flatnonzero(~current)
     if stale.size:
