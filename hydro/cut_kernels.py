@@ -75,34 +75,6 @@ def heel_extremes(
                     high[a] = e
 
 
-@nb.njit(nb.intp(nb.boolean[::1], nb.intp[::1]), cache=True, nogil=True, boundscheck=False)
-def _crossing_edges(below: NDArray[np.bool_], edges: NDArray[np.intp]) -> int:  # pragma: no cover
-    """Edges k whose ends lie on both sides of the water, in order, into ``edges``; how many.
-
-    One branch-free pass finds how many there are and the first and last (a single
-    piece of the section: two); only a section cut in several pieces needs a second
-    pass to list them all.
-    """
-    n_edges = below.size - 1
-    count = 0
-    first = n_edges
-    last = -1
-    for k in range(n_edges):
-        crossing = below[k] != below[k + 1]
-        count += crossing
-        first = min(first, k if crossing else n_edges)
-        last = max(last, k if crossing else -1)
-    if count <= 2:
-        edges[0] = first
-        edges[1] = last
-        return count
-    count = 0
-    for k in range(n_edges):
-        edges[count] = k
-        count += below[k] != below[k + 1]
-    return count
-
-
 @nb.njit(
     nb.void(
         nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[:, :, ::1], nb.f8[:, :, ::1],
@@ -135,9 +107,18 @@ def cut_sums(
         s = sin[a]
         for i in range(n_st):
             hq = h[a, i]
-            for k in range(n_vert):
-                below[k] = c * z[i, k] - s * y[i, k] < hq
-            n_cross = _crossing_edges(below, edges)
+            # one scan along the section: the edges whose ends lie on both sides of the
+            # water, in order, and for each whether its first vertex is under water
+            was = c * z[i, 0] - s * y[i, 0] < hq
+            below[0] = was
+            n_cross = 0
+            for k in range(1, n_vert):
+                now = c * z[i, k] - s * y[i, k] < hq
+                if now != was:
+                    edges[n_cross] = k - 1
+                    below[k - 1] = was
+                    n_cross += 1
+                    was = now
             area = 0.0
             q_xi = 0.0
             q_eta = 0.0
