@@ -32,7 +32,7 @@ temporaries; the rotated heights ``HeelFrame.eta`` are then made only if asked f
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import cached_property
+from functools import cached_property, lru_cache
 from types import ModuleType
 
 import numpy as np
@@ -167,6 +167,16 @@ def linear_weights(x: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray]:
     return w[0], w[1], w[2]
 
 
+@lru_cache(maxsize=16)
+def _station_weights(x: bytes) -> tuple[FloatArray, FloatArray, FloatArray]:
+    """:func:`linear_weights` (read-only) of the stations at ``x`` (their float64 bytes):
+    a drag that keeps the stations in place reuses them."""
+    w = linear_weights(np.frombuffer(x))
+    for part in w:
+        part.flags.writeable = False
+    return w
+
+
 def _closed_rings(stack: FloatArray) -> tuple[FloatArray, FloatArray]:
     """(S, 2n) y and z of the closed polygons of S half sections of n points each.
 
@@ -226,7 +236,7 @@ def build_section_table(stations: Stations) -> SectionTable:
     prefix = np.zeros((3, s_count, n_vertices))
     np.cumsum(edge, axis=2, out=prefix[:, :, 1:])
     gunwale = stations.gunwale
-    w0, w1, w2 = linear_weights(stations.x)
+    w0, w1, w2 = _station_weights(stations.x.tobytes())
     return SectionTable(
         x=stations.x.copy(),
         weights=w0,

@@ -415,19 +415,33 @@ def curve_area(heel_deg: FloatArray, gz: FloatArray, upto_deg: float) -> float |
 
     None when the curve stops short of ``upto_deg`` or has gaps before it.
     """
-    if upto_deg > heel_deg[-1] + 1e-9 or upto_deg < heel_deg[0]:
-        return None
-    keep = heel_deg <= upto_deg
-    a = np.radians(heel_deg[keep])
-    g = gz[keep]
-    if a[-1] < math.radians(upto_deg):
-        nxt = int(np.count_nonzero(keep))
-        g_end = np.interp(upto_deg, heel_deg[nxt - 1 : nxt + 1], gz[nxt - 1 : nxt + 1])
-        a = np.append(a, math.radians(upto_deg))
-        g = np.append(g, g_end)
-    if not np.all(np.isfinite(g)):
-        return None
-    return float(np.sum(np.diff(a) * (g[1:] + g[:-1]) / 2))
+    return curve_areas(heel_deg, gz, (upto_deg,))[0]
+
+
+def curve_areas(
+    heel_deg: FloatArray, gz: FloatArray, upto_deg: tuple[float, ...]
+) -> list[float | None]:
+    """:func:`curve_area` to each angle of ``upto_deg``, sharing the trapezoids
+    (``heel_deg`` ascending)."""
+    a = np.radians(heel_deg)
+    strips = np.diff(a) * (gz[1:] + gz[:-1]) / 2
+    bad = np.flatnonzero(~np.isfinite(gz))
+    first_bad = int(bad[0]) if bad.size else heel_deg.size
+    areas: list[float | None] = []
+    for upto in upto_deg:
+        if upto > heel_deg[-1] + 1e-9 or upto < heel_deg[0]:
+            areas.append(None)
+            continue
+        n = int(np.searchsorted(heel_deg, upto, side="right"))  # angles up to it
+        end = math.radians(upto)
+        part = strips[: n - 1]
+        if a[n - 1] < end:  # the last strip ends between two angles
+            g_end = np.interp(upto, heel_deg[n - 1 : n + 1], gz[n - 1 : n + 1])
+            last = (end - a[n - 1]) * (g_end + gz[n - 1]) / 2
+            part = np.append(part, last)
+            n = min(n + 1, heel_deg.size)  # the next angle's arm is used
+        areas.append(None if first_bad < n else float(np.sum(part)))
+    return areas
 
 
 def _crossings(heel: FloatArray, f: FloatArray, rising: bool) -> list[float]:
@@ -839,6 +853,9 @@ def righting_curve(
     track = FeatureTrack(side, now, before, side * extra, more.h, more.tau)
 
     list_deg = signed(list_a)
+    uptos = (30.0, 40.0) if gunwale is None else (30.0, 40.0, gunwale)
+    area_30, area_40, *more_areas = curve_areas(a, g, uptos)
+    area_to_gunwale = more_areas[0] if more_areas else None
     return StabilityCurve(
         heel_deg=heel_deg,
         gz=gz,
@@ -852,9 +869,9 @@ def righting_curve(
         max_gz_deg=side * max_a + 0.0,
         avs_deg=signed(avs_a),
         loll_deg=list_deg if base.gm <= 0 else None,
-        area_30=curve_area(a, g, 30.0),
-        area_40=curve_area(a, g, 40.0),
-        area_to_gunwale=curve_area(a, g, gunwale) if gunwale is not None else None,
+        area_30=area_30,
+        area_40=area_40,
+        area_to_gunwale=area_to_gunwale,
         list_deg=list_deg,
         side=side,
         waterlines=(pts.h, pts.tau),
