@@ -72,8 +72,12 @@ class LengthBox(QDoubleSpinBox):
 
     def set_metres(self, metres: float) -> None:
         """Show ``metres`` without emitting ``valueChanged`` (nothing to do if shown)."""
-        if self.value() == metres and self.lineEdit().text() == self.textFromValue(metres):
-            return  # views refresh on every drag frame: no repaint for the same figure
+        shown = self.prefix() + self.textFromValue(metres) + self.suffix()
+        half_step = 0.5 * 10.0 ** -self.decimals()
+        if self.lineEdit().text() == shown and abs(self.value() - metres) < half_step:
+            # views refresh on every drag frame: no repaint for the same figure (the line
+            # holds the prefix too, and the value is rounded to the box's decimals)
+            return
         with QSignalBlocker(self):
             self.setValue(metres)
             self.lineEdit().setText(self.textFromValue(self.value()))
