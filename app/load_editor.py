@@ -41,6 +41,7 @@ from hydro.units import UnitSystem
 from app import style
 from app.document import HullDocument
 from app.length_box import LengthBox
+from app.still_label import LabelSlot
 from app.load_table import Column, LoadTable
 from app.view_options import ViewOptions
 
@@ -125,7 +126,7 @@ class LoadEditor(QWidget):
         layout = QVBoxLayout(self)
         layout.setContentsMargins(4, 4, 4, 4)
         layout.addWidget(self.tabs, 1)
-        layout.addWidget(self.totals)
+        layout.addWidget(LabelSlot(self.totals))  # a new total never re-lays out the window
 
         document.designChanged.connect(self.refresh)
         document.analysisReady.connect(self.show_totals)
