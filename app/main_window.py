@@ -68,6 +68,7 @@ from app.safety_dialog import SafetyDialog
 from app.section_view import SectionView
 from app.recovery import Autosave, orphans
 from app.settings import add_recent_file, recent_files, recovery_folder
+from app.still_label import paint_own_background
 from app.view_options import ViewOptions
 
 __all__ = ["MainWindow", "sample_paths", "icon"]
@@ -166,6 +167,7 @@ class MainWindow(QMainWindow):
         self.cursor_label = QLabel()
         self.cursor_label.setFont(style.figure_font())
         self.cursor_label.setFixedSize(300, self.cursor_label.fontMetrics().height())  # no relayout per move
+        paint_own_background(self.cursor_label)  # nor a repaint of the status bar and window
         self.statusBar().addPermanentWidget(self.cursor_label)
         for view in self.views:
             view.cursorMoved.connect(self.cursor_label.setText)

@@ -29,6 +29,7 @@ from hydro.sections import build_section_table
 from app import style
 from app.document import HullDocument
 from app.gz_plot import LEGEND_HTML, GzPlot
+from app.still_label import paint_own_background
 from hydro.units import UnitSystem
 from app.view_options import ViewOptions
 
@@ -165,6 +166,8 @@ class ResultsPanel(QWidget):
             value.setToolTip(row.tip)
             unit = QLabel()
             unit.setFixedWidth(self.fontMetrics().horizontalAdvance("° by the stern  "))
+            for label in (value, unit):  # a new figure repaints its label only
+                paint_own_background(label)
             grid.addWidget(name, r, 0)
             grid.addWidget(value, r, 1)
             grid.addWidget(unit, r, 2)
