@@ -21,6 +21,7 @@ __all__ = [
     "polygon_path",
     "style_axes",
     "set_length_axis",
+    "show_label",
 ]
 
 
@@ -90,6 +91,18 @@ def follow_every_move(plot: pg.PlotWidget) -> None:
         send_hover(ev, exitOnly)
 
     scene.sendHoverEvents = hover_unless_dragging
+
+
+def show_label(label: pg.TextItem, text: str, pos: tuple[float, float] | None = None) -> None:
+    """Give a text item ``text`` at ``pos`` (data coordinates; None: where it is), doing
+    nothing it already shows: pyqtgraph lays the text out anew, and places it, on every
+    call, in every frame of a drag."""
+    if label.textItem.toPlainText() != text:
+        label.setText(text)
+    if pos is not None:
+        x, y = float(pos[0]), float(pos[1])
+        if label.pos().x() != x or label.pos().y() != y:
+            label.setPos(x, y)
 
 
 def polygon_path(x: np.ndarray, y: np.ndarray) -> QPainterPath:

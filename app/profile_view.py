@@ -11,7 +11,7 @@ from hydro import Analysis, HullSketch, Stations
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem, PathCurve, segments
+from app.drawing import OutlineItem, PathCurve, segments, show_label
 from app.editing import EditRefused
 from app.markers import Markers, marker_style
 from app.sketch_view import SketchView
@@ -112,8 +112,8 @@ class ProfileView(SketchView):
             self.water.clear()
             self.waterline.setData([], [])
             self.centres.set_markers([], [], [])
-            self.g_label.setText("")
-            self.b_label.setText("")
+            show_label(self.g_label, "")
+            show_label(self.b_label, "")
             return
         pad = 0.08 * rect.width()
         xs = np.array([rect.left() - pad, rect.right() + pad])
@@ -125,10 +125,8 @@ class ProfileView(SketchView):
         g = (w.lcg, w.vcg)
         b = (hs.lcb, w.vcg - w.kg + hs.kb)
         self.centres.set_markers([g[0], b[0]], [g[1], b[1]], self._centre_styles)
-        self.g_label.setText("G")
-        self.g_label.setPos(*g)
-        self.b_label.setText("B")
-        self.b_label.setPos(*b)
+        show_label(self.g_label, "G", g)
+        show_label(self.b_label, "B", b)
 
     def extent(self) -> QRectF:
         hull = self.document.design.hull

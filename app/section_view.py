@@ -23,7 +23,7 @@ from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem, PathCurve
+from app.drawing import OutlineItem, PathCurve, show_label
 from app.editing import EditRefused, PointRef
 from app.length_box import LengthBox
 from app.markers import Markers, marker_style
@@ -269,7 +269,7 @@ class SectionView(SketchView):
             self.waterline.setData([], [])
             self.centres.set_markers([], [], [])
             for label in self.labels.values():
-                label.setText("")
+                show_label(label, "")
             return
         rect = self.extent()
         x = self._station_x()
@@ -288,8 +288,7 @@ class SectionView(SketchView):
         xs, zs = zip(*(points[name] for name in ("G", "B", "M")))
         self.centres.set_markers(xs, zs, self._centre_styles)
         for name, label in self.labels.items():
-            label.setText(name)
-            label.setPos(*points[name])
+            show_label(label, name, points[name])
 
     def _show_heeled(self, analysis: Analysis, x: float, reach: float, depth: float) -> bool:
         """The heeled waterline, G and the righting arm; False (nothing drawn) if upright."""
@@ -320,11 +319,9 @@ class SectionView(SketchView):
         line = np.array([z - reach * up, z + reach * up])
         self.buoyancy_line.setData(line[:, 0], line[:, 1])
         self.centres.set_markers([g[0]], [g[1]], self._centre_styles[:1])
-        self.labels["G"].setText("G")
-        self.labels["G"].setPos(*g)
-        self.labels["B"].setText("B acts along this line")
-        self.labels["B"].setPos(*(z - 0.3 * reach * up))
-        self.labels["M"].setText("")
+        show_label(self.labels["G"], "G", g)
+        show_label(self.labels["B"], "B acts along this line", z - 0.3 * reach * up)
+        show_label(self.labels["M"], "")
         u = self.options.units
         deg = float(curve.heel_deg[i])
         side = "starboard" if deg >= 0 else "port"

@@ -1,0 +1,85 @@
+"""What a drag frame leaves alone: widgets showing what they showed, layouts and panels
+behind a label whose text changed."""
+
+import pyqtgraph as pg
+from PySide6.QtCore import QEvent, QObject
+from PySide6.QtWidgets import QApplication
+
+from app.document import HullDocument
+from app.drawing import show_label
+from app.length_box import LengthBox
+from app.load_editor import LoadEditor
+from app.results_panel import ResultsPanel
+from app.view_options import ViewOptions
+from tests.app.helpers import sample
+
+
+class EventCounter(QObject):
+    """Counts the events of one type a widget receives."""
+
+    def __init__(self, widget, kind: QEvent.Type):
+        super().__init__()
+        self.kind = kind
+        self.count = 0
+        widget.installEventFilter(self)
+
+    def eventFilter(self, watched, event) -> bool:
+        if event.type() == self.kind:
+            self.count += 1
+        return False
+
+
+def test_a_box_with_a_prefix_is_not_reset_to_the_figure_it_shows(qtbot):
+    box = LengthBox(-5.0, 40.0, "station")
+    qtbot.addWidget(box)
+    box.setPrefix("at x = ")
+    box.set_metres(1.23456789)  # more digits than the box holds
+    texts = []
+    box.lineEdit().textChanged.connect(texts.append)
+    box.set_metres(1.23456789)
+    assert texts == []
+    box.set_metres(1.5)
+    assert texts == ["at x = 1500 mm"]
+
+
+def test_a_new_total_does_not_ask_the_load_editor_for_a_new_layout(qtbot):
+    doc = HullDocument(sample("heron-punt"))
+    editor = LoadEditor(doc, ViewOptions())
+    qtbot.addWidget(editor)
+    editor.show()
+    qtbot.waitExposed(editor)
+    doc.recompute_now()
+    qtbot.wait(100)  # the first layouts and paints are done
+    asked = EventCounter(editor, QEvent.Type.LayoutRequest)
+    editor.totals.setText(editor.totals.text() + " and a much longer text than before")
+    QApplication.processEvents()
+    assert asked.count == 0
+    assert editor.totals.isVisible() and editor.totals.width() > 100
+
+
+def test_a_new_figure_repaints_its_label_not_the_panel_behind_it(qtbot):
+    doc = HullDocument(sample("heron-punt"))
+    panel = ResultsPanel(doc, ViewOptions())
+    qtbot.addWidget(panel)
+    panel.show()
+    qtbot.waitExposed(panel)
+    doc.recompute_now()
+    qtbot.wait(100)  # the first layouts and paints are done
+    value = panel.values["gm"]
+    behind = EventCounter(panel, QEvent.Type.Paint)
+    painted = EventCounter(value, QEvent.Type.Paint)
+    value.setText("-123")
+    qtbot.waitUntil(lambda: painted.count > 0)
+    assert behind.count == 0
+
+
+def test_a_label_given_what_it_shows_is_not_laid_out_again():
+    label = pg.TextItem("G")
+    show_label(label, "G", (1.0, 2.0))
+    changes = []
+    label.textItem.document().contentsChanged.connect(lambda: changes.append(1))
+    show_label(label, "G", (1.0, 2.0))
+    assert changes == [] and (label.pos().x(), label.pos().y()) == (1.0, 2.0)
+    show_label(label, "B")
+    assert changes and label.textItem.toPlainText() == "B"
+    assert (label.pos().x(), label.pos().y()) == (1.0, 2.0)
