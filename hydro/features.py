@@ -57,10 +57,13 @@ class _Samples:
     value: list[float] = field(default_factory=list)
 
     def add(self, angles: FloatArray, values: FloatArray) -> None:
+        """Insert the samples in order, skipping any within 1e-9 degree of one held."""
         for a, v in zip(angles.tolist(), values.tolist()):
-            if any(abs(a - b) <= 1e-9 for b in self.angle):
-                continue
             k = bisect.bisect(self.angle, a)
+            if (k > 0 and a - self.angle[k - 1] <= 1e-9) or (
+                k < len(self.angle) and self.angle[k] - a <= 1e-9
+            ):
+                continue
             self.angle.insert(k, a)
             self.value.insert(k, v)
 

@@ -346,12 +346,11 @@ def _free_surface(stations: Stations, level: float) -> tuple[FloatArray, int]:
     return own, most
 
 
-def _keel_height_at(stations: Stations, x: float) -> float:
+def _keel_heights(stations: Stations) -> FloatArray:
+    """(S,) the lowest point of each station."""
     if stations.stack is not None:
-        low = stations.stack[:, :, 1].min(axis=1)
-    else:
-        low = np.array([np.min(h[:, 1]) for h in stations.half_sections])
-    return float(np.interp(x, stations.x, low))
+        return stations.stack[:, :, 1].min(axis=1)
+    return np.array([np.min(h[:, 1]) for h in stations.half_sections])
 
 
 def _check_number(value: float, what: str, low: float = -math.inf, high: float = math.inf) -> None:
@@ -406,9 +405,10 @@ def weight_build_up(
     """
     validate_loads(loads, stations)
     lines: list[WeightLine] = []
+    keel = _keel_heights(stations)
     for c in loads.crew:
         z = (
-            _keel_height_at(stations, c.x)
+            float(np.interp(c.x, stations.x, keel))
             + loads.bottom_thickness
             + c.seat_height
             + c.cg_above_seat
