@@ -418,7 +418,9 @@ def generate_stations(sketch: HullSketch, count: int | None = None) -> Stations:
         raise ShapeError("the station count must be between 2 and 1001")
     x0, x1 = sketch.x_range
     xs, uv = _cached(_station_shapes, sketch.sections, x0, x1, n)
-    b, k, s = (_cached(_at_stations, c, x0, x1, n) for c in (sketch.plan, sketch.keel, sketch.sheer))
+    b, k, s = (
+        _cached(_at_stations, c, x0, x1, n) for c in (sketch.plan, sketch.keel, sketch.sheer)
+    )
     return Stations(xs.copy(), tuple(_place(uv, b, k, s)), check_sections=False)
 
 

@@ -945,7 +945,8 @@ def analyse_table(
     the one status of the loaded boat (see :class:`Status`).
 
     ``start``: an analysis of a nearby design (the previous frame of a drag); the solver
-    starts from its floating positions and reaches the same figures in fewer steps.
+    starts from its floating positions (carried on at the drag's pace when ``start``
+    itself followed a frame) and reaches the same figures in fewer steps.
     """
     capacity = float(table.totals[0] @ table.weights) * rho
     near = start.hydrostatics if start is not None else None
@@ -953,7 +954,9 @@ def analyse_table(
     track = None if previous is None else previous.track
     here = None if near is None else (near.h, near.tau)
     before = None if track is None else track.upright_before
-    ahead = None if here is None or before is None else (2 * here[0] - before[0], 2 * here[1] - before[1])
+    ahead = None
+    if here is not None and before is not None:
+        ahead = (2 * here[0] - before[0], 2 * here[1] - before[1])
     base = upright(table, weights, rho, free_trim, ahead or here)
     if base is None:
         return Analysis(Status.SINKS, weights, None, None, capacity_kg=capacity)
