@@ -1,12 +1,14 @@
-"""The hot path of :mod:`hydro.sections` compiled with numba (optional).
+"""The hot path of :mod:`hydro.sections` (and Newton's step of :mod:`hydro.equilibrium`)
+compiled with numba (optional).
 
 Import this module only through :mod:`hydro.compiled`, which decides whether the
 compiled kernels are used at all.  Importing it compiles the kernels for their one
 signature each, or loads them from numba's cache (``cache=True``: beside this file in
 ``__pycache__``, else numba's user cache, or ``NUMBA_CACHE_DIR`` when set).
 
-Each kernel does the arithmetic of the numpy reference in :mod:`hydro.sections` in the
-same order, term by term, so the two agree to rounding; the difference is that the
+Each kernel does the arithmetic of the numpy reference in :mod:`hydro.sections` (or
+:mod:`hydro.equilibrium`) in the same order, term by term, so the two agree to rounding;
+the difference is that the
 rotated heights eta are made station by station as they are needed, the crossing edges
 are found by a scan along each section, and the sums are accumulated on the way, with
 no (angles x stations x vertices) temporaries.
@@ -18,7 +20,7 @@ import numba as nb
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["heel_extremes", "cut_sums", "FIELDS"]
+__all__ = ["heel_extremes", "cut_sums", "newton_update", "FIELDS"]
 
 FloatArray = NDArray[np.float64]
 
@@ -163,3 +165,39 @@ def cut_sums(
                 out[1, a, i] = q_xi + first * totals[1, a, i]
                 out[4, a, i] = m1
                 out[5, a, i] = m2
+
+
+@nb.njit(
+    nb.void(
+        nb.f8[:], nb.f8[:], nb.f8[:], nb.f8[:], nb.f8[:], nb.f8[:], nb.f8[:], nb.f8[:],
+        nb.f8, nb.f8, nb.f8, nb.f8, nb.f8, nb.f8,
+        nb.f8[::1], nb.f8[::1], nb.boolean[::1], nb.boolean[::1],
+    ),
+    cache=True, nogil=True, boundscheck=False, error_model="numpy",
+)
+def newton_update(
+    f1: FloatArray, f2: FloatArray, j11: FloatArray, j12: FloatArray, j21: FloatArray,
+    j22: FloatArray, h: FloatArray, tau: FloatArray,
+    tol_v: float, tol_m: float, max_dh: float, max_dtau: float, small: float, length: float,
+    h_out: FloatArray, tau_out: FloatArray, move: NDArray[np.bool_], keep: NDArray[np.bool_],
+) -> None:  # pragma: no cover - compiled
+    """One Newton step on (h, tau) per angle, as ``hydro.equilibrium._newton_update``:
+    residuals f1, f2 and their Jacobian j at (h, tau); into h_out, tau_out the new point,
+    into ``move`` whether the angle moved, into ``keep`` whether it moved by more than
+    ``small`` (in h, and in tau times ``length``)."""
+    for i in range(f1.size):
+        settled = abs(f1[i]) <= tol_v and abs(f2[i]) <= tol_m
+        det = j11[i] * j22[i] - j12[i] * j21[i]
+        good = j11[i] > 0 and abs(det) > 1e-14 * abs(j11[i] * j22[i])
+        safe = det if good else 1.0
+        dh = (-f1[i] * j22[i] + f2[i] * j12[i]) / safe
+        dh = -max_dh if dh < -max_dh else dh
+        dh = max_dh if dh > max_dh else dh
+        dtau = (f1[i] * j21[i] - f2[i] * j11[i]) / safe
+        dtau = -max_dtau if dtau < -max_dtau else dtau
+        dtau = max_dtau if dtau > max_dtau else dtau
+        moves = good and not settled
+        h_out[i] = h[i] + dh if moves else h[i]
+        tau_out[i] = tau[i] + dtau if moves else tau[i]
+        move[i] = moves
+        keep[i] = moves and not (abs(dh) <= small and abs(dtau) * length <= small)

@@ -22,6 +22,7 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
+from hydro import compiled
 from hydro.sections import Cut, HeelFrame, SectionTable, cut
 
 __all__ = ["Equilibrium", "solve_equilibrium", "level_waterline", "follow_branch", "heel_neighbours"]
@@ -171,6 +172,7 @@ def _joint_newton(
     span = float(np.max(frame.eta_high - frame.eta_low))
     max_dh, max_dtau = 0.25 * span, 0.25 * span / length
     tol_v, tol_m = TOLERANCE * volume, TOLERANCE * volume * length
+    limits = (tol_v, tol_m, max_dh, max_dtau, STEP_DONE * span, length)
     active: NDArray[np.intp] | slice = slice(None)  # every angle, until the set shrinks
     sub = frame
     at: Cut | None = None  # the cut of every angle at its last evaluation
@@ -178,22 +180,12 @@ def _joint_newton(
     for _ in range(iterations):
         ha, ta = h[active], tau[active]
         r = _residual(table, sub, volume, x_g, eta_g[active], ha, ta, full=True)
-        settled = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
-        det = r.j11 * r.j22 - r.j12 * r.j21
-        good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
-        safe = np.where(good, det, 1.0)
-        dh = np.minimum(np.maximum((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh), max_dh)
-        dtau = np.minimum(np.maximum((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau), max_dtau)
-        move = good & ~settled
-        h[active] = np.where(move, ha + dh, ha)
-        tau[active] = np.where(move, ta + dtau, ta)
+        h[active], tau[active], move, keep = _newton_update(r, ha, ta, limits)
         if at is None or isinstance(active, slice):  # every angle evaluated
             at, current = r.cut, ~move
         else:
             _put(at, active, r.cut)
             current[active] = ~move
-        tiny = (np.abs(dh) <= STEP_DONE * span) & (np.abs(dtau) * length <= STEP_DONE * span)
-        keep = move & ~tiny
         if not keep.any():
             break
         if keep.sum() <= 0.5 * keep.size:  # copying the rotated vertices pays off
@@ -205,6 +197,37 @@ def _joint_newton(
     if stale.size:
         _put(at, stale, cut(table, frame.take(stale), _levels(table, h[stale], tau[stale])))
     return h, tau, at
+
+
+def _newton_update(
+    r: _Residual, h: FloatArray, tau: FloatArray, limits: tuple[float, ...]
+) -> tuple[FloatArray, FloatArray, NDArray[np.bool_], NDArray[np.bool_]]:
+    """One Newton step on (h, tau) for every angle, each component clipped.
+
+    ``limits``: the tolerances on volume and pitch (an angle within both stays), the
+    largest steps in h and tau, the step that counts as tiny, the hull's length.  Returns
+    the new h and tau (unchanged where settled or the Jacobian is singular), which angles
+    moved, and which moved by more than a tiny step (in h, and in tau times the length).
+    Runs the compiled kernel when :mod:`hydro.compiled` has it ready (the same arithmetic).
+    """
+    kernels = compiled.kernels()
+    if kernels is not None:
+        out = np.empty((2, h.size))
+        move, keep = np.empty(h.size, dtype=bool), np.empty(h.size, dtype=bool)
+        kernels.newton_update(
+            r.f1, r.f2, r.j11, r.j12, r.j21, r.j22, h, tau, *limits, out[0], out[1], move, keep
+        )
+        return out[0], out[1], move, keep
+    tol_v, tol_m, max_dh, max_dtau, small, length = limits
+    settled = (np.abs(r.f1) <= tol_v) & (np.abs(r.f2) <= tol_m)
+    det = r.j11 * r.j22 - r.j12 * r.j21
+    good = (r.j11 > 0) & (np.abs(det) > 1e-14 * np.abs(r.j11 * r.j22))
+    safe = np.where(good, det, 1.0)
+    dh = np.minimum(np.maximum((-r.f1 * r.j22 + r.f2 * r.j12) / safe, -max_dh), max_dh)
+    dtau = np.minimum(np.maximum((r.f1 * r.j21 - r.f2 * r.j11) / safe, -max_dtau), max_dtau)
+    move = good & ~settled
+    tiny = (np.abs(dh) <= small) & (np.abs(dtau) * length <= small)
+    return np.where(move, h + dh, h), np.where(move, tau + dtau, tau), move, move & ~tiny
 
 
 def _put(into: Cut, idx: NDArray[np.intp], part: Cut) -> None:
