@@ -38,8 +38,9 @@ class LabelSlot(QWidget):
         self.label = label
         label.setParent(self)
         paint_own_background(label)
-        height = label.fontMetrics().lineSpacing() + 4
-        self.setFixedHeight(height)
+        probe = QLabel("Ag")  # one line's height, as the layout gave the label
+        probe.setFont(label.font())
+        self.setFixedHeight(probe.sizeHint().height())
         self.setSizePolicy(QSizePolicy.Policy.Ignored, QSizePolicy.Policy.Fixed)
         self.setMinimumWidth(0)
 
