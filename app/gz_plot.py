@@ -11,11 +11,20 @@ import math
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt, Signal
+from PySide6.QtGui import QTransform
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsSimpleTextItem
 
 from hydro import StabilityCurve
 
 from app import style
-from app.drawing import PathCurve, VerticalBand, set_length_axis, style_axes
+from app.drawing import (
+    PathCurve,
+    StraightLine,
+    VerticalBand,
+    set_length_axis,
+    steady_axes,
+    style_axes,
+)
 from app.markers import Markers, marker_style
 from hydro.units import UnitSystem
 
@@ -28,6 +37,10 @@ LEGEND_HTML = (
     f"<span style='color:{style.WALL_SIDED}'>╍╍</span> wall-sided estimate &nbsp; "
     f"<span style='color:{style.HEELING_ARM}'>━·━</span> crew-shift heeling arm"
 )
+
+
+#: Pixels between the gunwale line and its label.
+_LABEL_MARGIN = 4
 
 
 def nice_ceiling(value: float) -> float:
@@ -68,7 +81,7 @@ class GzPlot(pg.PlotWidget):
     heelPicked = Signal(float)
 
     def __init__(self) -> None:
-        super().__init__(background=style.PAPER)
+        super().__init__(background=style.PAPER, axisItems=steady_axes())
         self.scene().sigMouseClicked.connect(self._on_clicked)
         self.setToolTip("Click the curve to see the boat heeled at that angle in the section view")
         self.setMenuEnabled(False)
@@ -81,7 +94,7 @@ class GzPlot(pg.PlotWidget):
         self.beyond_band = VerticalBand(style.NOT_AVAILABLE_FILL)
         self.beyond_band.setZValue(-10)
         self.addItem(self.beyond_band, ignoreBounds=True)
-        self.zero = pg.InfiniteLine(pos=0.0, angle=0, pen=pg.mkPen(style.INK_FAINT, width=1))
+        self.zero = StraightLine(pg.mkPen(style.INK_FAINT, width=1), vertical=False)
         self.addItem(self.zero, ignoreBounds=True)
         self.wall_sided = PathCurve(
             pen=pg.mkPen(style.WALL_SIDED, width=1.5, style=Qt.PenStyle.DashLine), connect="finite"
@@ -92,19 +105,29 @@ class GzPlot(pg.PlotWidget):
         self.open_part = PathCurve(pen=pg.mkPen(style.GZ_LINE, width=2.5), connect="finite")
         for item in (self.wall_sided, self.beyond_part, self.open_part):
             self.addItem(item)
-        self.gunwale_line = pg.InfiniteLine(
-            angle=90,
-            pen=pg.mkPen(style.WATER_LINE, width=1.5),
-            label="gunwale under {value:.1f}°",
-            labelOpts={"position": 0.12, "color": style.WATER_LINE, "anchors": [(0, 0), (0, 0)]},
-        )
+        self.gunwale_line = StraightLine(pg.mkPen(style.WATER_LINE, width=1.5), vertical=True)
         self.addItem(self.gunwale_line, ignoreBounds=True)
+        # its label, a fixed size on screen, low down beside the line
+        self._label_left = False  # left of the line (the gunwale far to the right)
+        self.gunwale_label = QGraphicsSimpleTextItem()
+        self.gunwale_label.setBrush(pg.mkBrush(style.WATER_LINE))
+        self.gunwale_label.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+        self.addItem(self.gunwale_label, ignoreBounds=True)
+        self.getViewBox().sigRangeChanged.connect(self._place_gunwale_label)
         self.peak = Markers()
         self._peak_style = marker_style("d", 9, "w", style.GZ_LINE)
         self.addItem(self.peak)
         self._units: UnitSystem | None = None
-        self._label_side: tuple[int, int] | None = None
         self._span: tuple[float, float, float] | None = None  # heel range end, GZ bottom and top
+
+    def _place_gunwale_label(self) -> None:
+        """The label 12 % of the way up the plot, beside the line, clear of it by the
+        margin pyqtgraph's text items keep."""
+        (_x0, _x1), (y0, y1) = self.viewRange()
+        label = self.gunwale_label
+        shift = -label.boundingRect().width() - _LABEL_MARGIN if self._label_left else _LABEL_MARGIN
+        label.setTransform(QTransform.fromTranslate(shift, _LABEL_MARGIN))
+        label.setPos(self.gunwale_line.value(), y0 + 0.12 * (y1 - y0))
 
     def show_pinned(self, curve: StabilityCurve | None) -> None:
         """A pinned version's GZ curve, faint behind the current one (None: none)."""
@@ -144,6 +167,7 @@ class GzPlot(pg.PlotWidget):
                 item.setData([], [])
             self.peak.set_markers([], [], [])
             self.gunwale_line.hide()
+            self.gunwale_label.hide()
             self.beyond_band.hide()
             return
         heel, gz = curve.heel_deg, curve.gz
@@ -178,16 +202,18 @@ class GzPlot(pg.PlotWidget):
             self.wall_sided.setData(*_within(heel, curve.wall_sided, bottom, top))
         if gunwale is None:
             self.gunwale_line.hide()
+            self.gunwale_label.hide()
             self.beyond_band.hide()
         else:
             self.gunwale_line.setValue(gunwale)
-            # label on whichever side of the line has room
-            side = (1, 0) if gunwale - first > 0.6 * (last - first) else (0, 0)
-            if side != self._label_side:
-                self._label_side = side
-                self.gunwale_line.label.anchors = [side, side]
-                self.gunwale_line.label.updatePosition()
             self.gunwale_line.show()
+            text = f"gunwale under {gunwale:.1f}°"
+            if text != self.gunwale_label.text():
+                self.gunwale_label.setText(text)
+            # on whichever side of the line has room
+            self._label_left = gunwale - first > 0.6 * (last - first)
+            self._place_gunwale_label()
+            self.gunwale_label.show()
             self.beyond_band.setRegion((first, gunwale) if to_port else (gunwale, last))
             self.beyond_band.setVisible(open_boat)
         if math.isfinite(curve.max_gz):

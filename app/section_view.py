@@ -23,7 +23,7 @@ from hydro.hull import SMOOTH_SAMPLES_PER_SPAN
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import OutlineItem, PathCurve, show_label
+from app.drawing import OutlineItem, PathCurve, StraightLine, show_label
 from app.editing import EditRefused, PointRef
 from app.length_box import LengthBox
 from app.markers import Markers, marker_style
@@ -80,7 +80,7 @@ class SectionView(SketchView):
         self.body_plan = PathCurve(pen=pg.mkPen(style.INK_FAINT, width=1), connect="finite")
         self.waterline = PathCurve(pen=pg.mkPen(style.WATER_LINE, width=2))
         self.waterline.setZValue(6)
-        self.centreline = pg.InfiniteLine(pos=0.0, angle=90, pen=pg.mkPen(style.INK_FAINT, width=1))
+        self.centreline = StraightLine(pg.mkPen(style.INK_FAINT, width=1), vertical=True)
         self.centres = Markers()
         self.centres.setZValue(8)
         self._centre_styles = [  # G, B, M

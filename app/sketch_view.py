@@ -31,7 +31,7 @@ from hydro import Analysis, HullSketch
 from app import editing, style
 from app.control_points import ControlPoints
 from app.document import HullDocument
-from app.drawing import follow_every_move, set_length_axis, style_axes
+from app.drawing import follow_every_move, set_length_axis, steady_axes, style_axes
 from app.editing import PointRef
 from app.view_options import ViewOptions
 
@@ -116,7 +116,9 @@ class SketchView(QWidget):
 
         self.select_box = SelectBox()
         self.select_box.boxSelected.connect(self._on_box_selected)
-        self.plot = pg.PlotWidget(background=style.PAPER, viewBox=self.select_box)
+        self.plot = pg.PlotWidget(
+            background=style.PAPER, viewBox=self.select_box, axisItems=steady_axes()
+        )
         self.plot.setMenuEnabled(False)
         self.plot.hideButtons()
         self.plot.setFocusPolicy(Qt.FocusPolicy.StrongFocus)

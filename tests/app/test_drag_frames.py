@@ -9,6 +9,7 @@ from app.document import HullDocument
 from app.drawing import show_label
 from app.length_box import LengthBox
 from app.load_editor import LoadEditor
+from app.plan_view import PlanView
 from app.results_panel import ResultsPanel
 from app.view_options import ViewOptions
 from tests.app.helpers import sample
@@ -83,3 +84,45 @@ def test_a_label_given_what_it_shows_is_not_laid_out_again():
     show_label(label, "B")
     assert changes and label.textItem.toPlainText() == "B"
     assert (label.pos().x(), label.pos().y()) == (1.0, 2.0)
+
+
+def test_steady_axes_keep_pyqtgraphs_bounds_through_resizes_zooms_and_units(qtbot):
+    doc = HullDocument(sample("heron-punt"))
+    options = ViewOptions()
+    view = PlanView(doc, options)
+    qtbot.addWidget(view)
+    view.resize(700, 400)
+    view.show()
+    qtbot.waitExposed(view)
+    axes = [view.plot.getAxis(side) for side in ("bottom", "left")]
+
+    def bounds_are_pyqtgraphs() -> bool:
+        return all(a.boundingRect() == pg.AxisItem.boundingRect(a) for a in axes)
+
+    [a.boundingRect() for a in axes]  # cached
+    assert bounds_are_pyqtgraphs()
+    view.resize(900, 500)
+    qtbot.waitUntil(lambda: view.plot.width() > 800)
+    assert bounds_are_pyqtgraphs()
+    view.view_box.scaleBy((0.5, 0.5))
+    assert bounds_are_pyqtgraphs()
+    options.set_units("imperial")  # wider tick labels: the left axis grows
+    QApplication.processEvents()
+    assert bounds_are_pyqtgraphs()
+
+
+def test_the_gunwale_line_and_its_label_follow_the_curve(qtbot):
+    doc = HullDocument(sample("paper-loon-canoe"))
+    panel = ResultsPanel(doc, ViewOptions())
+    qtbot.addWidget(panel)
+    panel.show()
+    doc.recompute_now()
+    plot, curve = panel.gz_plot, doc.analysis.curve
+    gunwale = curve.gunwale_immersion_deg
+    assert plot.gunwale_line.value() == gunwale and plot.gunwale_line.isVisible()
+    label = plot.gunwale_label
+    assert label.isVisible() and label.text() == f"gunwale under {gunwale:.1f}°"
+    (x0, x1), (y0, y1) = plot.viewRange()
+    assert label.pos().x() == gunwale and y0 < label.pos().y() < y1
+    plot.show_curve(None)
+    assert not plot.gunwale_line.isVisible() and not label.isVisible()
