@@ -103,9 +103,18 @@ class Markers(pg.GraphicsObject):
         return int(found[-1]) if found.size else None
 
     def paint(self, painter, *_args) -> None:
-        transform = painter.transform()
+        """Each symbol at its point's pixel, unscaled (pen and brush set once per run of
+        markers of one style)."""
+        if self._x.size == 0:
+            return
+        t = painter.transform()  # data to pixels: affine in a graphics view
+        px = t.m11() * self._x + t.m21() * self._y + t.dx()
+        py = t.m12() * self._x + t.m22() * self._y + t.dy()
         painter.resetTransform()
-        for x, y, style in zip(self._x.tolist(), self._y.tolist(), self._styles):
-            painter.setPen(style.pen)
-            painter.setBrush(style.brush)
-            painter.drawPath(style.path.translated(transform.map(QPointF(x, y))))
+        last = None
+        for x, y, style in zip(px.tolist(), py.tolist(), self._styles):
+            if style is not last:
+                last = style
+                painter.setPen(style.pen)
+                painter.setBrush(style.brush)
+            painter.drawPath(style.path.translated(x, y))
