@@ -45,6 +45,7 @@ class SectionView(SketchView):
         super().__init__(document, options, "Section", "true scale, looking forward")
         self.shape_index = 0
         self._frame_cache: tuple = (None, -1, (0.0, 0.0, 0.0))
+        self._samples_cache: tuple = (None, np.empty((0, 2)))
         self.shape_box = QComboBox()
         self.shape_box.setToolTip("Which section shape to edit")
         self.shape_box.currentIndexChanged.connect(self._on_shape_chosen)
@@ -222,6 +223,16 @@ class SectionView(SketchView):
             self._frame_cache = (hull, index, frame)
         return frame
 
+    def _shape_samples(self, shape) -> np.ndarray:
+        """The shape's outline (u, v), sampled once per shape (a plan or profile drag
+        rescales it on every frame, but leaves the shape as it was)."""
+        key = (shape.points, shape.smooth)
+        if key != self._samples_cache[0]:
+            points = np.asarray(shape.points, dtype=float)
+            uv = sample_polyline(points, shape.smooth, SMOOTH_SAMPLES_PER_SPAN)
+            self._samples_cache = (key, uv)
+        return self._samples_cache[1]
+
     def drawing_key(self) -> tuple:
         hull = self.document.design.hull
         if isinstance(hull, Stations):
@@ -239,7 +250,7 @@ class SectionView(SketchView):
         self._update_header(hull)
         shape = hull.sections[self.shape_index]
         b, k, d = self._frame(hull, self.shape_index)
-        uv = sample_polyline(np.asarray(shape.points, dtype=float), shape.smooth, SMOOTH_SAMPLES_PER_SPAN)
+        uv = self._shape_samples(shape)
         y, z = uv[:, 0] * b, k + uv[:, 1] * d
         self.outline.set_polygon(np.concatenate([y, -y[::-1]]), np.concatenate([z, z[::-1]]))
         self.body_plan.setData([], [])

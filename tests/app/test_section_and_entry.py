@@ -90,3 +90,35 @@ def test_add_and_remove_section_shapes(section, qtbot):
     view._remove_shape()
     assert len(doc.committed.hull.sections) == 1
     qtbot.keyClick(view.plot, Qt.Key.Key_Escape)
+
+
+def test_the_outline_follows_a_plan_edit_and_a_shape_edit(section):
+    """The shape's samples are kept between frames: a new half-breadth rescales them,
+    a new shape replaces them."""
+    from dataclasses import replace
+
+    doc, view, _entry, _ = section
+    hull = doc.committed.hull
+    station = hull.sections[0].x
+
+    def outline_half_width() -> float:
+        return view.outline.path().boundingRect().width() / 2
+
+    b, _k, _d = editing.section_frame(hull, 0)
+    widest = max(u for u, _v in hull.sections[0].points)
+    assert outline_half_width() == pytest.approx(b * widest)
+    wider = [(x, value + 0.05) for x, value in hull.plan.points]
+    hull = replace(hull, plan=replace(hull.plan, points=tuple(wider)))
+    assert doc.edit(replace(doc.committed, hull=hull), "wider")
+    b2, _k, _d = editing.section_frame(hull, 0)
+    assert b2 > b and outline_half_width() == pytest.approx(b2 * widest)
+    shape = hull.sections[0]
+    (u, v) = shape.points[1]  # the chine, moved in
+    points = shape.points[:1] + ((0.7 * u, v),) + shape.points[2:]
+    hull = replace(hull, sections=(replace(shape, points=points),) + hull.sections[1:])
+    assert doc.edit(replace(doc.committed, hull=hull), "chine in")
+    path = view.outline.path()
+    xs = [path.elementAt(i).x for i in range(path.elementCount())]
+    assert any(abs(x - 0.7 * u * b2) < 1e-9 for x in xs)
+    assert not any(abs(x - u * b2) < 1e-9 for x in xs)
+    assert hull.sections[0].x == station
