@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from functools import cached_property
 
 import numpy as np
 import shapely
@@ -223,16 +224,21 @@ class ShellPanels:
     ----------
     area : (P,) m^2
     centroid : (P, 3) m (y = 0 for mirrored pairs)
-    surface : (P,) str, one of "bottom", "sides", "ends"
+    kind : (P,) index into SURFACES of each panel's surface
     surface_area : area of each surface (m^2), by name
     surface_moment : (3,) each surface's area times its centroid (m^3), by name
     """
 
     area: FloatArray
     centroid: FloatArray
-    surface: NDArray[np.str_] = field(repr=False)
+    kind: NDArray[np.intp] = field(repr=False)
     surface_area: dict[str, float] = field(repr=False)
     surface_moment: dict[str, FloatArray] = field(repr=False)
+
+    @cached_property
+    def surface(self) -> NDArray[np.str_]:
+        """(P,) each panel's surface by name: "bottom", "sides" or "ends"."""
+        return np.array(SURFACES)[self.kind]
 
     def covering(self, surfaces: tuple[str, ...]) -> tuple[float, FloatArray]:
         """Area (m^2) and centroid (3,) of the named surfaces (zeros when no area)."""
@@ -321,7 +327,7 @@ def shell_panels(stations: Stations) -> ShellPanels:
     on = np.where(kind == np.arange(len(SURFACES))[:, None], area, 0.0)
     totals, moments = on.sum(axis=1), on @ centroid
     return ShellPanels(
-        area, centroid, np.array(SURFACES)[kind],
+        area, centroid, kind,
         {name: float(totals[k]) for k, name in enumerate(SURFACES)},
         {name: moments[k] for k, name in enumerate(SURFACES)},
     )
