@@ -304,9 +304,10 @@ class SectionView(SketchView):
     def _show_heeled(self, analysis: Analysis, x: float, reach: float, depth: float) -> bool:
         """The heeled waterline, G and the righting arm; False (nothing drawn) if upright."""
         curve = analysis.curve
-        self.arm.setData([], [])
-        self.buoyancy_line.setData([], [])
         if self.heel_deg is None or curve is None or curve.waterlines is None:
+            for line in (self.arm, self.buoyancy_line):
+                if line.getData()[0] is not None and len(line.getData()[0]):
+                    line.setData([], [])  # only once: pyqtgraph redoes its bounds each time
             self.heel_text.setText("")
             return False
         i = int(np.argmin(np.abs(curve.heel_deg - self.heel_deg)))

@@ -132,6 +132,7 @@ def test_a_click_on_the_gz_curve_heels_the_section(window, qtbot):
     view.upright.click()
     _ys, zs = view.waterline.getData()
     assert zs[0] == zs[1] and view.heel_text.text() == ""
+    assert len(view.arm.getData()[0]) == 0 and len(view.buoyancy_line.getData()[0]) == 0
 
 
 def pg_point(x, y):
