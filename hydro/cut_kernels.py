@@ -20,7 +20,7 @@ import numba as nb
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["heel_extremes", "cut_sums", "newton_update", "FIELDS"]
+__all__ = ["heel_extremes", "cut_sums", "residual_sums", "newton_update", "FIELDS"]
 
 FloatArray = NDArray[np.float64]
 
@@ -165,6 +165,60 @@ def cut_sums(
                 out[1, a, i] = q_xi + first * totals[1, a, i]
                 out[4, a, i] = m1
                 out[5, a, i] = m2
+
+
+@nb.njit(
+    nb.void(
+        nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[:, ::1], nb.f8[::1], nb.f8[:, ::1],
+        nb.f8[:], nb.f8[:], nb.f8, nb.f8, nb.f8[:, ::1],
+    ),
+    cache=True, nogil=True, boundscheck=False,
+)
+def residual_sums(
+    area: FloatArray, q_eta: FloatArray, breadth: FloatArray, hs: FloatArray, x: FloatArray,
+    weights: FloatArray, eta_g: FloatArray, tau: FloatArray, volume: float, x_g: float,
+    out: FloatArray,
+) -> None:  # pragma: no cover - compiled
+    """Volume and pitch residuals and their Jacobian per angle, as
+    ``hydro.equilibrium._residual`` (the integrals along the hull summed station by
+    station, so they agree with its matrix products to rounding), into ``out`` (6, A):
+    f1, f2, j11, j12, j21, j22.
+
+    ``area``, ``q_eta``, ``breadth``: the cut at waterline heights ``hs`` (A, S);
+    ``weights`` (S, 2): those of f and of x f along the hull at stations ``x``."""
+    n_angles, n_st = area.shape
+    for a in range(n_angles):
+        vol = 0.0
+        vol_x = 0.0
+        q = 0.0
+        aw = 0.0
+        aw_x = 0.0
+        sx = 0.0
+        bx_x = 0.0
+        bh = 0.0
+        bhx = 0.0
+        for i in range(n_st):
+            w = weights[i, 0]
+            wx = weights[i, 1]
+            b = breadth[a, i]
+            bx = b * x[i]
+            bhi = b * hs[a, i]
+            vol += area[a, i] * w
+            vol_x += area[a, i] * wx
+            q += q_eta[a, i] * w
+            aw += b * w
+            aw_x += b * wx
+            sx += bx * w
+            bx_x += bx * wx
+            bh += bhi * w
+            bhx += bhi * x[i] * w
+        moment = q - eta_g[a] * vol
+        out[0, a] = vol - volume
+        out[1, a] = vol_x - x_g * vol + tau[a] * moment
+        out[2, a] = aw
+        out[3, a] = sx
+        out[4, a] = aw_x - x_g * aw + tau[a] * (bh - eta_g[a] * aw)
+        out[5, a] = bx_x - x_g * sx + moment + tau[a] * (bhx - eta_g[a] * sx)
 
 
 @nb.njit(

@@ -134,6 +134,15 @@ def _residual(
     ``full``)."""
     hs = _levels(table, h, tau)
     c = cut(table, frame, hs, full=full)
+    kernels = compiled.kernels()
+    if kernels is not None:  # the same sums, station by station
+        out = np.empty((6, h.size))
+        kernels.residual_sums(
+            c.area, c.q_eta, c.breadth, hs, table.x, table.weight_pair, eta_g, tau, volume,
+            x_g, out,
+        )
+        f1, f2, j11, j12, j21, j22 = out
+        return _Residual(f1, f2, j11, j12, j21, j22, c)
     # every integral along the hull in one product: of the area, q_eta, breadth,
     # breadth x, breadth hs and breadth hs x, against the weights of f and of x f
     parts = np.empty((6,) + hs.shape)

@@ -325,3 +325,28 @@ def test_newtons_step_agrees_exactly(kernels, restore_engine):
     for g, w in zip(got, want):
         np.testing.assert_array_equal(g, w)
     assert want[2].any() and not want[2].all() and want[3].any() and not want[3].all()
+
+
+@pytest.mark.parametrize("name", ["paper-loon-canoe", "drift-lab-raft", "twin tubes"])
+def test_residuals_and_their_jacobian_agree(kernels, restore_engine, name):
+    """The equilibrium residuals summed station by station (compiled) and by matrix
+    products (numpy), at waterlines around the floating one and at heels to 90 degrees."""
+    from hydro.equilibrium import _residual
+
+    table = TABLES[name]
+    rng = np.random.default_rng(3)
+    phi = np.radians(np.linspace(0.0, 90.0, 19))
+    frame = heel_frame(table, phi)
+    h = frame.eta_low + (frame.eta_high - frame.eta_low) * rng.uniform(0.1, 0.6, phi.size)
+    tau = rng.normal(size=phi.size) * 0.02
+    eta_g = np.linspace(0.1, 0.3, phi.size)
+    volume = 0.5 * float(table.totals[0] @ table.weights)
+    x_g = float(table.x.mean())
+    compiled.select("numpy")
+    want = _residual(table, frame, volume, x_g, eta_g, h, tau)
+    compiled.select("compiled")
+    got = _residual(table, frame, volume, x_g, eta_g, h, tau)
+    for key in ("f1", "f2", "j11", "j12", "j21", "j22"):
+        g, w = getattr(got, key), getattr(want, key)
+        scale = np.max(np.abs(w)) + 1e-300
+        np.testing.assert_allclose(g, w, rtol=0, atol=1e-12 * scale, err_msg=key)
