@@ -12,6 +12,7 @@ from hydro import HullSketch
 from app import editing, style
 from app.document import HullDocument
 from app.length_box import LengthBox
+from app.still_label import paint_own_background
 from app.view_options import ViewOptions
 
 __all__ = ["PointEntry"]
@@ -49,6 +50,7 @@ class PointEntry(QWidget):
         hint = QLabel("arrows nudge, Shift ×10")
         hint.setToolTip("Arrow keys nudge the selected point, Shift ten times as far; Esc cancels a drag")
         hint.setStyleSheet(f"color: {style.INK_FAINT};")
+        paint_own_background(self)  # a new coordinate repaints this row, not the window
         layout = QHBoxLayout(self)
         layout.setContentsMargins(6, 2, 6, 2)
         for w in (self.title, self.first_label, self.first, self.second_label, self.second, self.remove):

@@ -137,3 +137,25 @@ def test_the_gunwale_line_and_its_label_follow_the_curve(qtbot):
     assert label.pos().x() == gunwale and y0 < label.pos().y() < y1
     plot.show_curve(None)
     assert not plot.gunwale_line.isVisible() and not label.isVisible()
+
+
+def test_a_new_coordinate_repaints_the_point_row_not_the_window_behind_it(qtbot):
+    from PySide6.QtWidgets import QVBoxLayout, QWidget
+
+    from app.editing import PointRef
+    from app.point_entry import PointEntry
+
+    doc = HullDocument(sample("heron-punt"))
+    window = QWidget()
+    entry = PointEntry(doc, ViewOptions())
+    QVBoxLayout(window).addWidget(entry)
+    qtbot.addWidget(window)
+    window.show()
+    qtbot.waitExposed(window)
+    doc.select(PointRef("plan", 2))
+    behind = EventCounter(window, QEvent.Type.Paint)
+    quiet(qtbot, behind)
+    painted = EventCounter(entry.second, QEvent.Type.Paint)
+    entry.second.set_metres(entry.second.metres() + 0.05)
+    qtbot.waitUntil(lambda: painted.count > 0)
+    assert behind.count == 0
