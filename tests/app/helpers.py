@@ -37,3 +37,22 @@ def data_per_pixel(plot) -> float:
     """Size of one screen pixel in data units (aspect locked: the same on both axes)."""
     w, h = plot.getViewBox().viewPixelSize()
     return max(w, h)
+
+
+def slow_first_call(real, started):
+    """``real`` with its first call made to spin for a minute (setting ``started`` as it
+    begins), so a test can interrupt it; returns (the wrapper, the list of designs called)."""
+    import time
+
+    calls = []
+
+    def wrapper(design, *args, **kwargs):
+        calls.append(design)
+        if len(calls) == 1:  # the run the test interrupts: would take a minute
+            started.set()
+            end = time.monotonic() + 60
+            while time.monotonic() < end:
+                sum(range(100))
+        return real(design, *args, **kwargs)
+
+    return wrapper, calls

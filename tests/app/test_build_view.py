@@ -10,7 +10,7 @@ from app.main_window import MainWindow
 from app.settings import open_settings
 from app.view_options import ViewOptions
 from hydro.build_pack import build_pack
-from tests.app.helpers import sample
+from tests.app.helpers import sample, slow_first_call
 
 
 @pytest.fixture
@@ -87,22 +87,11 @@ def test_frames_typed_in_display_units(view, qtbot):
 
 def test_a_drag_stops_the_rebuild_in_progress_at_once(qtbot, monkeypatch):
     import threading
-    import time
 
     import app.build_view as build_view
 
     started = threading.Event()
-    calls = []
-
-    def slow_first_then_real(design, settings):
-        calls.append(design)
-        if len(calls) == 1:  # the rebuild the drag interrupts: would take a minute
-            started.set()
-            end = time.monotonic() + 60
-            while time.monotonic() < end:
-                sum(range(100))
-        return build_pack(design, settings)
-
+    slow_first_then_real, calls = slow_first_call(build_pack, started)
     monkeypatch.setattr(build_view, "build_pack", slow_first_then_real)
     doc = HullDocument(sample("heron-punt"))
     widget = BuildView(doc, ViewOptions(), open_settings())

@@ -2,7 +2,6 @@
 steps, and handles the inclining test's readings (bad ones get a message)."""
 
 import threading
-import time
 
 import numpy as np
 import pytest
@@ -14,7 +13,7 @@ from app.checks_panel import ChecksPanel
 from app.document import HullDocument
 from app.gz_plot import GzPlot
 from app.view_options import ViewOptions
-from tests.app.helpers import sample
+from tests.app.helpers import sample, slow_first_call
 
 
 @pytest.fixture
@@ -178,18 +177,7 @@ def test_checks_stop_when_a_drag_begins_and_run_again_after_the_release(qtbot, m
     from tests.app.test_build_view import _wider
 
     started = threading.Event()
-    calls = []
-
-    def slow_first_then_real(design, *args, **kwargs):
-        calls.append(design)
-        if len(calls) == 1:  # the run the drag interrupts: would take a minute
-            started.set()
-            end = time.monotonic() + 60
-            while time.monotonic() < end:
-                sum(range(100))
-        return real_assess(design, *args, **kwargs)
-
-    real_assess = runner.assess
+    slow_first_then_real, calls = slow_first_call(runner.assess, started)
     monkeypatch.setattr(runner, "assess", slow_first_then_real)
     doc = HullDocument(sample("heron-punt"))
     widget = ChecksPanel(doc, ViewOptions(), GzPlot())

@@ -41,6 +41,15 @@ def quiet(qtbot, counter: EventCounter) -> None:
     raise AssertionError("the widget never settled")
 
 
+def shown(qtbot, widget, doc: HullDocument):
+    """``widget`` on screen showing ``doc``'s figures."""
+    qtbot.addWidget(widget)
+    widget.show()
+    qtbot.waitExposed(widget)
+    doc.recompute_now()
+    return widget
+
+
 def test_a_box_with_a_prefix_is_not_reset_to_the_figure_it_shows(qtbot):
     box = LengthBox(-5.0, 40.0, "station")
     qtbot.addWidget(box)
@@ -56,11 +65,7 @@ def test_a_box_with_a_prefix_is_not_reset_to_the_figure_it_shows(qtbot):
 
 def test_a_new_total_does_not_ask_the_load_editor_for_a_new_layout(qtbot):
     doc = HullDocument(sample("heron-punt"))
-    editor = LoadEditor(doc, ViewOptions())
-    qtbot.addWidget(editor)
-    editor.show()
-    qtbot.waitExposed(editor)
-    doc.recompute_now()
+    editor = shown(qtbot, LoadEditor(doc, ViewOptions()), doc)
     asked = EventCounter(editor, QEvent.Type.LayoutRequest)
     quiet(qtbot, asked)
     editor.totals.setText(editor.totals.text() + " and a much longer text than before")
@@ -71,11 +76,7 @@ def test_a_new_total_does_not_ask_the_load_editor_for_a_new_layout(qtbot):
 
 def test_a_new_figure_repaints_its_label_not_the_panel_behind_it(qtbot):
     doc = HullDocument(sample("heron-punt"))
-    panel = ResultsPanel(doc, ViewOptions())
-    qtbot.addWidget(panel)
-    panel.show()
-    qtbot.waitExposed(panel)
-    doc.recompute_now()
+    panel = shown(qtbot, ResultsPanel(doc, ViewOptions()), doc)
     value = panel.values["gm"]
     behind = EventCounter(panel, QEvent.Type.Paint)
     quiet(qtbot, behind)
